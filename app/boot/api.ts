@@ -1,0 +1,2 @@
+import { defineBoot } from "#q-app/wrappers";
+export default defineBoot(() => {});
