@@ -56,3 +56,48 @@ export interface BldcSimulationParams {
    */
   backEmfShape?: number[];
 }
+
+/**
+ * Drive (inverter) losses as the usual three-term model: a fixed part (control, gate drive,
+ * cooling fan), a part proportional to the current (switching, diode and IGBT threshold drops)
+ * and one proportional to its square (on-state resistance). Current is the RMS motor current.
+ */
+export interface DriveLossModel {
+  fixedW: number;
+  perAmpereW: number;
+  perAmpereSquaredOhm: number;
+}
+
+/**
+ * What a steady-state loss evaluation of a sized BLDC needs at any speed and torque (efficiency
+ * map, part-load curve). `size-bldc` returns it (field `lossModel`); `efficiency-map` consumes it.
+ * Each "AtRated" loss is the value at rated speed; the consumer scales it with speed as stated.
+ */
+export interface BldcLossModel {
+  ratedSpeedRpm: number;
+  ratedTorqueNm: number;
+  /** Highest speed the design may run at (mechanical or voltage limit) [rpm]. */
+  maxSpeedRpm: number;
+  /** Highest continuous torque (thermal) [N·m]; the envelope's low-speed limit. */
+  maxContinuousTorqueNm: number;
+  /** Peak torque at the drive's current limit [N·m]. */
+  peakTorqueNm: number;
+  dcBusV: number;
+  polePairs: number;
+  phaseResistanceOhm: number;
+  /** Torque per RMS phase current [N·m/A]. */
+  torqueConstantNmPerA: number;
+  /** Phase back-EMF flat-top value per mechanical angular speed [V·s/rad]. */
+  backEmfConstantVsPerRad: number;
+  /** Stator iron hysteresis loss at rated speed [W]; scales with frequency (speed). */
+  ironHysteresisAtRatedW: number;
+  /** Stator iron eddy-current loss at rated speed [W]; scales with frequency squared. */
+  ironEddyAtRatedW: number;
+  /** Magnet eddy-current loss at rated speed and torque [W]; scales with speed² × (torque/rated)². */
+  magnetEddyAtRatedW: number;
+  /** Bearing friction at rated speed [W]; scales with speed. */
+  frictionAtRatedW: number;
+  /** Windage (and shaft fan) at rated speed [W]; scales with speed cubed. */
+  windageAtRatedW: number;
+  drive: DriveLossModel;
+}
