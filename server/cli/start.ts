@@ -1,0 +1,80 @@
+/**
+ * `npm start`: PostgreSQL (private cluster unless DATABASE_URL), migrations, demo seed, the client
+ * build when the sources are newer than it, the local mail catcher (unless SMTP_URL), and the app on
+ * http://127.0.0.1:3000. Ctrl-C (or SIGTERM) lets requests in flight finish, then stops everything.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { createApp } from '../app.js';
+import { openDatabase } from '../lib/bootstrap.js';
+import { loadConfig, projectRoot } from '../lib/config.js';
+import { logger } from '../lib/logger.js';
+import { startMailCatcher, type MailCatcher } from '../lib/mail-catcher.js';
+import { createMailer } from '../lib/mail.js';
+import { ClusterError } from '../lib/postgres-cluster.js';
+
+function newestMtime(path: string): number {
+  const stats = statSync(path);
+  if (!stats.isDirectory()) return stats.mtimeMs;
+  return readdirSync(path).reduce((newest, name) => Math.max(newest, newestMtime(join(path, name))), stats.mtimeMs);
+}
+
+/** Builds the client when dist/spa is missing or older than anything it is built from. */
+function buildClientIfStale(clientDir: string): void {
+  const builtAt = existsSync(join(clientDir, 'index.html')) ? statSync(join(clientDir, 'index.html')).mtimeMs : 0;
+  const sources = ['app', 'calc', 'server/shared', 'index.html', 'quasar.config.ts'].map((path) => join(projectRoot, path));
+  if (builtAt > Math.max(...sources.filter(existsSync).map(newestMtime))) return;
+  logger.info('building the client (quasar build)…');
+  const build = spawnSync(join(projectRoot, 'node_modules/.bin/quasar'), ['build'], { cwd: projectRoot, stdio: ['ignore', 'ignore', 'inherit'] });
+  if (build.status !== 0) throw new Error('The client build failed (see above).');
+}
+
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const database = await openDatabase(config, { migrate: true, seed: true });
+  let catcher: MailCatcher | undefined;
+  try {
+    buildClientIfStale(config.clientDir);
+    if (!config.smtpUrl) {
+      catcher = await startMailCatcher(config.smtpCatcherPort);
+      logger.info(`local mail catcher on 127.0.0.1:${catcher.port}: e-mail goes to the Outbox page`);
+    }
+  } catch (error) {
+    // Leave nothing running behind a failed start.
+    await database.close();
+    throw error;
+  }
+  const mailer = createMailer({ smtpUrl: config.smtpUrl, catcherPort: catcher?.port ?? config.smtpCatcherPort, from: config.mailFrom });
+  if (config.sessionSecretIsRandom) logger.warn('SESSION_SECRET is not set: sessions end when the server restarts.');
+
+  const { app, close: closeApp } = createApp({ config, databaseUrl: database.url, mailer });
+  const server = app.listen(config.port, config.host, () => {
+    process.stdout.write(`\nStatorline is ready on http://${config.host}:${config.port}  (Ctrl-C stops it and its database)\n`);
+    process.stdout.write('Demo sign-ins: admin@kestrel.example, engineer@kestrel.example, approver@kestrel.example, viewer@kestrel.example — password statorline-demo\n\n');
+  });
+
+  let stopping = false;
+  const stop = async (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    logger.info(`${signal}: stopping — letting requests in flight finish`);
+    const forced = setTimeout(() => server.closeAllConnections(), 10_000);
+    await new Promise<void>((resolve) => server.close(() => resolve()));
+    clearTimeout(forced);
+    mailer.close();
+    await catcher?.close();
+    await closeApp();
+    await database.close();
+    logger.info('stopped cleanly');
+    process.exit(0);
+  };
+  process.on('SIGINT', () => void stop('SIGINT'));
+  process.on('SIGTERM', () => void stop('SIGTERM'));
+}
+
+main().catch((error: unknown) => {
+  if (error instanceof ClusterError) process.stderr.write(`${error.message}\n`);
+  else process.stderr.write(`${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`);
+  process.exit(1);
+});
