@@ -1,8 +1,74 @@
 import type { RouteRecordRaw } from 'vue-router';
+import { EDITORS, OUTBOX_READERS } from 'shared/roles';
 
+/*
+ * Every screen by name; pages load lazily. `meta.public` screens need no sign-in; `meta.roles`
+ * limits a screen to those roles (the navigation guard in router/guard.ts enforces both, and the
+ * drawer reads the same meta to decide what to show).
+ */
 const routes: RouteRecordRaw[] = [
-  { path: '/', name: 'home', component: () => import('pages/ErrorNotFoundPage.vue') },
-  { path: '/:catchAll(.*)*', name: 'not-found', component: () => import('pages/ErrorNotFoundPage.vue') },
+  {
+    path: '/',
+    component: () => import('layouts/MainLayout.vue'),
+    children: [
+      { path: '', name: 'overview', component: () => import('pages/OverviewPage.vue') },
+      { path: 'sites', name: 'sites', component: () => import('pages/SitesPage.vue') },
+      {
+        path: 'sites/new',
+        name: 'site-new',
+        component: () => import('pages/SiteFormPage.vue'),
+        meta: { roles: EDITORS },
+      },
+      {
+        path: 'sites/:id(\\d+)',
+        name: 'site-detail',
+        component: () => import('pages/SiteDetailPage.vue'),
+        props: (route) => ({ id: Number(route.params.id) }),
+      },
+      {
+        path: 'sites/:id(\\d+)/edit',
+        name: 'site-edit',
+        component: () => import('pages/SiteFormPage.vue'),
+        props: (route) => ({ id: Number(route.params.id) }),
+        meta: { roles: EDITORS },
+      },
+      {
+        path: 'settings/team',
+        name: 'team',
+        component: () => import('pages/TeamPage.vue'),
+        meta: { roles: ['admin'] },
+      },
+      {
+        path: 'outbox/:id(\\d+)?',
+        name: 'outbox',
+        component: () => import('pages/OutboxPage.vue'),
+        props: (route) => ({ id: route.params.id ? Number(route.params.id) : null }),
+        meta: { roles: OUTBOX_READERS },
+      },
+      { path: 'account', name: 'account', component: () => import('pages/AccountPage.vue') },
+      { path: 'not-allowed', name: 'not-allowed', component: () => import('pages/NotAllowedPage.vue') },
+    ],
+  },
+  {
+    path: '/',
+    component: () => import('layouts/AuthLayout.vue'),
+    children: [
+      { path: 'sign-in', name: 'sign-in', component: () => import('pages/SignInPage.vue'), meta: { public: true } },
+      {
+        path: 'invitation',
+        name: 'invitation',
+        component: () => import('pages/InvitationPage.vue'),
+        meta: { public: true },
+      },
+    ],
+  },
+  // Always last.
+  {
+    path: '/:catchAll(.*)*',
+    name: 'not-found',
+    component: () => import('pages/ErrorNotFoundPage.vue'),
+    meta: { public: true },
+  },
 ];
 
 export default routes;
