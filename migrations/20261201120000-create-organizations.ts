@@ -12,5 +12,5 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('organizations');
+  await queryInterface.dropTable('organizations', {});
 };

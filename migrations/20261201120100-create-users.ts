@@ -27,6 +27,6 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('users');
+  await queryInterface.dropTable('users', {});
   await queryInterface.sequelize.query('DROP TYPE IF EXISTS "enum_users_role"; DROP TYPE IF EXISTS "enum_users_status";');
 };

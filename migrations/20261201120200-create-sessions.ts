@@ -13,5 +13,5 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('session');
+  await queryInterface.dropTable('session', {});
 };

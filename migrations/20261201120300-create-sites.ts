@@ -31,5 +31,5 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('sites');
+  await queryInterface.dropTable('sites', {});
 };

@@ -32,6 +32,6 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('import_batches');
+  await queryInterface.dropTable('import_batches', {});
   await queryInterface.sequelize.query('DROP TYPE IF EXISTS "enum_import_batches_status";');
 };

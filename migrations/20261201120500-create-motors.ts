@@ -67,7 +67,7 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('motors');
+  await queryInterface.dropTable('motors', {});
   await queryInterface.sequelize.query(`
     DROP TYPE IF EXISTS "enum_motors_application"; DROP TYPE IF EXISTS "enum_motors_efficiency_class";
     DROP TYPE IF EXISTS "enum_motors_control_method"; DROP TYPE IF EXISTS "enum_motors_status";`);

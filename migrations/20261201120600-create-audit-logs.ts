@@ -21,5 +21,5 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('audit_logs');
+  await queryInterface.dropTable('audit_logs', {});
 };

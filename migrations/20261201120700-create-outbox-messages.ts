@@ -24,5 +24,5 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('outbox_messages');
+  await queryInterface.dropTable('outbox_messages', {});
 };

@@ -19,5 +19,5 @@ export const up: Migration = async ({ context: queryInterface }) => {
 };
 
 export const down: Migration = async ({ context: queryInterface }) => {
-  await queryInterface.dropTable('outbox_attachments');
+  await queryInterface.dropTable('outbox_attachments', {});
 };
