@@ -3,32 +3,14 @@
  * build when the sources are newer than it, the local mail catcher (unless SMTP_URL), and the app on
  * http://127.0.0.1:3000. Ctrl-C (or SIGTERM) lets requests in flight finish, then stops everything.
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
-import { join } from 'node:path';
 import { createApp } from '../app.js';
 import { openDatabase } from '../lib/bootstrap.js';
-import { loadConfig, projectRoot } from '../lib/config.js';
+import { buildClientIfStale } from '../lib/client-build.js';
+import { loadConfig } from '../lib/config.js';
 import { logger } from '../lib/logger.js';
 import { startMailCatcher, type MailCatcher } from '../lib/mail-catcher.js';
 import { createMailer } from '../lib/mail.js';
 import { ClusterError } from '../lib/postgres-cluster.js';
-
-function newestMtime(path: string): number {
-  const stats = statSync(path);
-  if (!stats.isDirectory()) return stats.mtimeMs;
-  return readdirSync(path).reduce((newest, name) => Math.max(newest, newestMtime(join(path, name))), stats.mtimeMs);
-}
-
-/** Builds the client when dist/spa is missing or older than anything it is built from. */
-function buildClientIfStale(clientDir: string): void {
-  const builtAt = existsSync(join(clientDir, 'index.html')) ? statSync(join(clientDir, 'index.html')).mtimeMs : 0;
-  const sources = ['app', 'calc', 'server/shared', 'index.html', 'quasar.config.ts'].map((path) => join(projectRoot, path));
-  if (builtAt > Math.max(...sources.filter(existsSync).map(newestMtime))) return;
-  logger.info('building the client (quasar build)…');
-  const build = spawnSync(join(projectRoot, 'node_modules/.bin/quasar'), ['build'], { cwd: projectRoot, stdio: ['ignore', 'ignore', 'inherit'] });
-  if (build.status !== 0) throw new Error('The client build failed (see above).');
-}
 
 async function main(): Promise<void> {
   const config = loadConfig();
