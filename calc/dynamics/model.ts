@@ -1,0 +1,324 @@
+/**
+ * Phase-variable model of a three-phase, star-connected BLDC motor without a neutral connection:
+ * back-EMF shapes, the state derivative of currents, speed, angle, DC-link voltage and energy
+ * integrals, and the checks on the raw parameters.
+ *
+ * References:
+ * [1] P. Pillay, R. Krishnan, "Modeling, simulation, and analysis of permanent-magnet motor drives,
+ *     Part II: The brushless DC motor drive", IEEE Trans. Industry Applications 25(2), 1989, 274–279.
+ * [2] R. Krishnan, Electric Motor Drives: Modeling, Analysis, and Control, Prentice Hall, 2001, ch. 9.
+ * [3] D. Hanselman, Brushless Permanent Magnet Motor Design, 2nd ed., 2006, ch. 7 (six-step drive).
+ */
+import type { BldcSimulationParams } from '../contracts.js';
+import { CalcInputError, requireNonNegative, requirePositive } from '../errors.js';
+import { loadTorque, type LoadState } from './load.js';
+
+/** Width of the back-EMF flat top when the design does not say [electrical degrees]: the ideal trapezoid of [1]. */
+export const DEFAULT_FLAT_TOP_ELECTRICAL_DEG = 120;
+
+/** Indices of the state vector. Currents [A], speed [rad/s mechanical], angle [rad mechanical], energies [J]. */
+export const S_CURRENT_A = 0;
+export const S_CURRENT_B = 1;
+export const S_CURRENT_C = 2;
+export const S_SPEED = 3;
+export const S_ANGLE = 4;
+export const S_DC_BUS = 5;
+export const S_ENERGY_IN = 6;
+export const S_ENERGY_COPPER = 7;
+export const S_ENERGY_LOAD = 8;
+export const S_ENERGY_FRICTION = 9;
+export const STATE_SIZE = 10;
+
+/** Indices of the auxiliary outputs the derivative writes on each call (values at the state it was given). */
+export const AUX_NEUTRAL_V = 0;
+export const AUX_TORQUE = 1;
+export const AUX_LOAD_TORQUE = 2;
+export const AUX_INPUT_POWER = 3;
+/** Back-EMFs of phases a, b, c [V]: AUX_EMF + k. */
+export const AUX_EMF = 4;
+/** Phase-to-neutral voltages of phases a, b, c [V]: AUX_PHASE_V + k. */
+export const AUX_PHASE_V = 7;
+/** Terminal (leg) voltages against the negative DC rail [V]: AUX_TERMINAL_V + k. */
+export const AUX_TERMINAL_V = 10;
+export const AUX_RECTIFIER_CURRENT = 13;
+export const AUX_SIZE = 14;
+
+/** A right-hand side dx/dt = f(t, x) that writes into `dx` and allocates nothing. */
+export type Derivative = (t: number, x: Float64Array, dx: Float64Array) => void;
+
+/**
+ * Trapezoidal back-EMF shape of phase a, peak 1, flat top centred on 90° electrical.
+ * @param phase fraction of the electrical period [-], 0 to 1 (0 = rising zero crossing)
+ * @param halfTransition half the width of one transition [-] (fraction of the period),
+ *   (0.5 − flatTop/360)/2; 0 gives a square wave
+ * @returns normalised back-EMF [-], −1 to 1
+ * Equations: piecewise linear between −1 and +1 with flat tops of (0.5 − 2·halfTransition) periods [1].
+ */
+export function trapezoidShape(phase: number, halfTransition: number): number {
+  if (halfTransition <= 0) return phase < 0.5 ? 1 : -1;
+  if (phase < halfTransition) return phase / halfTransition;
+  if (phase <= 0.5 - halfTransition) return 1;
+  if (phase < 0.5 + halfTransition) return (0.5 - phase) / halfTransition;
+  if (phase <= 1 - halfTransition) return -1;
+  return (phase - 1) / halfTransition;
+}
+
+/**
+ * Back-EMF shape of phase a from equally spaced samples over one electrical period, interpolated
+ * linearly and periodically.
+ * @param phase fraction of the electrical period [-], 0 to 1
+ * @param table samples with the first one repeated at the end (length N + 1) [-]
+ * @returns normalised back-EMF [-]
+ */
+export function tableShape(phase: number, table: Float64Array): number {
+  const samples = table.length - 1;
+  const position = phase * samples;
+  const index = Math.min(Math.floor(position), samples - 1);
+  const fraction = position - index;
+  return (table[index] as number) * (1 - fraction) + (table[index + 1] as number) * fraction;
+}
+
+/** Half-width of one back-EMF transition [fraction of the period] for a flat top [electrical degrees]. */
+export function halfTransitionFromFlatTop(flatTopElectricalDeg: number): number {
+  return (0.5 - flatTopElectricalDeg / 360) / 2;
+}
+
+/**
+ * Inductance that one phase current sees in a star connection without neutral [H]: L − M, since
+ * i_a + i_b + i_c = 0 turns L·i_a + M·(i_b + i_c) into (L − M)·i_a (Eq. (1)–(2) of [1]).
+ * @param phaseInductanceH self-inductance L [H]
+ * @param mutualInductanceH mutual inductance M [H] (negative or zero by the usual sign convention)
+ */
+export function effectiveInductance(phaseInductanceH: number, mutualInductanceH: number): number {
+  return phaseInductanceH - mutualInductanceH;
+}
+
+/**
+ * Electrical time constant of the star-connected winding [s]: (L − M) / R.
+ * @param params raw parameters (R [Ω], L [H], M [H])
+ */
+export function electricalTimeConstant(params: BldcSimulationParams): number {
+  return effectiveInductance(params.phaseInductanceH, params.mutualInductanceH) / params.phaseResistanceOhm;
+}
+
+/**
+ * Line-to-line back-EMF constant of a six-step drive [V·s/rad]: two phases in series on their flat
+ * tops, 2·k_e. It is also the torque constant per DC-link current [N·m/A] ([2] §9.4).
+ * @param backEmfConstantVsPerRad phase flat-top back-EMF per mechanical rad/s [V·s/rad]
+ */
+export function lineBackEmfConstant(backEmfConstantVsPerRad: number): number {
+  return 2 * backEmfConstantVsPerRad;
+}
+
+/**
+ * Steady no-load speed of the six-step drive on a stiff DC bus with full duty [rad/s]: the speed at
+ * which V_dc = 2·k_e·ω + 2·R·I with the friction current I = B·ω/(2·k_e), solved for ω:
+ * ω = V_dc / (2·k_e + 2·R·B/(2·k_e)). ([2] §9.4, equivalent DC-motor model.)
+ * @param params raw parameters
+ * @returns mechanical speed [rad/s]
+ */
+export function noLoadSpeed(params: BldcSimulationParams): number {
+  const lineConstant = lineBackEmfConstant(params.backEmfConstantVsPerRad);
+  return params.dcBusV / (lineConstant + (2 * params.phaseResistanceOhm * params.viscousFrictionNmsPerRad) / lineConstant);
+}
+
+/**
+ * Checks the raw parameters; throws CalcInputError naming the field (prefixed by `field`).
+ * Rules: R, L, k_e, p, J, V_dc positive; B zero or more; |M| < L (coupling below one, so L − M > 0);
+ * flat top in (0, 180] electrical degrees; a given shape has at least 6 finite samples within ±2.
+ */
+export function validateSimulationParams(params: BldcSimulationParams, field: string): void {
+  requirePositive(`${field}.phaseResistanceOhm`, params.phaseResistanceOhm);
+  requirePositive(`${field}.phaseInductanceH`, params.phaseInductanceH);
+  if (!Number.isFinite(params.mutualInductanceH) || Math.abs(params.mutualInductanceH) >= params.phaseInductanceH) {
+    throw new CalcInputError(`${field}.mutualInductanceH`, 'must be smaller in magnitude than phaseInductanceH');
+  }
+  requirePositive(`${field}.backEmfConstantVsPerRad`, params.backEmfConstantVsPerRad);
+  requirePositive(`${field}.flatTopElectricalDeg`, params.flatTopElectricalDeg);
+  if (params.flatTopElectricalDeg > 180) throw new CalcInputError(`${field}.flatTopElectricalDeg`, 'must be at most 180');
+  if (!Number.isInteger(params.polePairs) || params.polePairs < 1) {
+    throw new CalcInputError(`${field}.polePairs`, 'must be a positive integer');
+  }
+  requirePositive(`${field}.inertiaKgM2`, params.inertiaKgM2);
+  requireNonNegative(`${field}.viscousFrictionNmsPerRad`, params.viscousFrictionNmsPerRad);
+  requirePositive(`${field}.dcBusV`, params.dcBusV);
+  const shape = params.backEmfShape;
+  if (shape !== undefined) {
+    if (shape.length < 6 || shape.some((value) => !Number.isFinite(value) || Math.abs(value) > 2)) {
+      throw new CalcInputError(`${field}.backEmfShape`, 'must have at least 6 finite samples within ±2');
+    }
+  }
+}
+
+/** What the BLDC derivative reads; the arrays are shared with the inverter and changed between steps. */
+export interface BldcModelConfig {
+  phaseResistanceOhm: number;
+  /** L − M [H]. */
+  effectiveInductanceH: number;
+  backEmfConstantVsPerRad: number;
+  polePairs: number;
+  /** Motor plus load inertia [kg·m²]. */
+  totalInertiaKgM2: number;
+  viscousFrictionNmsPerRad: number;
+  /** Half-width of a transition for the trapezoid [-]; ignored when shapeTable is given. */
+  halfTransition: number;
+  /** Periodic shape samples with the first repeated at the end, or null for the trapezoid. */
+  shapeTable: Float64Array | null;
+  /** Per leg: terminal voltage as a multiple of the DC-link voltage [-] (duty, 1 or 0). */
+  legFactor: Float64Array;
+  /** Per leg: 1 when the phase conducts (switch or diode), 0 when it floats with zero current. */
+  closed: Float64Array;
+  load: LoadState;
+  /** Rectifier feeding the DC link, or null for a stiff DC bus. */
+  rectifier: null | {
+    /** Peak line-to-line voltage √2·V_LL [V]. */
+    peakLineV: number;
+    angularFrequency: number;
+    capacitanceF: number;
+    sourceResistanceOhm: number;
+  };
+  /** Written on every call: neutral voltage, torques, power, EMFs, phase and terminal voltages. */
+  aux: Float64Array;
+}
+
+const TWO_PI = 2 * Math.PI;
+const TWO_THIRDS_PI = (2 * Math.PI) / 3;
+
+/**
+ * Builds the state derivative of the star-connected BLDC with its inverter legs ([1] Eqs. (1)–(6)).
+ * For the conducting (closed) phases k, with terminal voltages v_k, back-EMFs e_k = k_e·ω·f_k(p·θ):
+ *   v_n = Σ_closed (v_k − e_k) / n_closed                      (Σ i = 0 and Σ di/dt = 0)
+ *   di_k/dt = (v_k − v_n − R·i_k − e_k) / (L − M)               ([1] Eq. (3))
+ *   T_e = Σ e_k·i_k / ω = k_e·Σ f_k·i_k                          ([1] Eq. (4))
+ *   J·dω/dt = T_e − T_L − B·ω,  dθ/dt = ω                        ([1] Eq. (5))
+ * A floating phase keeps zero current; with fewer than two closed phases no current flows.
+ * The DC-link voltage is constant, or C·dv/dt = i_rect − i_dc with the six-pulse rectifier current
+ * i_rect = max(0, (v_src − v)/R_s). Energies: dE_in/dt = Σ v_k·i_k (= v·i_dc), dE_cu/dt = R·Σ i²,
+ * dE_load/dt = T_L·ω, dE_fric/dt = B·ω².
+ * @returns f(t [s], x, dx) writing dx and config.aux; no allocation
+ */
+export function createBldcDerivative(config: BldcModelConfig): Derivative {
+  const resistance = config.phaseResistanceOhm;
+  const inverseInductance = 1 / config.effectiveInductanceH;
+  const ke = config.backEmfConstantVsPerRad;
+  const polePairs = config.polePairs;
+  const inverseInertia = 1 / config.totalInertiaKgM2;
+  const friction = config.viscousFrictionNmsPerRad;
+  const halfTransition = config.halfTransition;
+  const table = config.shapeTable;
+  const legFactor = config.legFactor;
+  const closed = config.closed;
+  const load = config.load;
+  const rectifier = config.rectifier;
+  const aux = config.aux;
+
+  return (t: number, x: Float64Array, dx: Float64Array): void => {
+    const ia = x[S_CURRENT_A] as number;
+    const ib = x[S_CURRENT_B] as number;
+    const ic = x[S_CURRENT_C] as number;
+    const speed = x[S_SPEED] as number;
+    const vdc = x[S_DC_BUS] as number;
+
+    const turns = (polePairs * (x[S_ANGLE] as number)) / TWO_PI;
+    const ua = turns - Math.floor(turns);
+    let ub = ua - 1 / 3;
+    if (ub < 0) ub += 1;
+    let uc = ua + 1 / 3;
+    if (uc >= 1) uc -= 1;
+    let fa: number;
+    let fb: number;
+    let fc: number;
+    if (table === null) {
+      fa = trapezoidShape(ua, halfTransition);
+      fb = trapezoidShape(ub, halfTransition);
+      fc = trapezoidShape(uc, halfTransition);
+    } else {
+      fa = tableShape(ua, table);
+      fb = tableShape(ub, table);
+      fc = tableShape(uc, table);
+    }
+    const ea = ke * speed * fa;
+    const eb = ke * speed * fb;
+    const ec = ke * speed * fc;
+
+    const va = (legFactor[0] as number) * vdc;
+    const vb = (legFactor[1] as number) * vdc;
+    const vc = (legFactor[2] as number) * vdc;
+    const ca = closed[0] as number;
+    const cb = closed[1] as number;
+    const cc = closed[2] as number;
+    const closedCount = ca + cb + cc;
+
+    let neutral: number;
+    let dia = 0;
+    let dib = 0;
+    let dic = 0;
+    if (closedCount >= 2) {
+      neutral = (ca * (va - ea) + cb * (vb - eb) + cc * (vc - ec)) / closedCount;
+      dia = ca * (va - neutral - resistance * ia - ea) * inverseInductance;
+      dib = cb * (vb - neutral - resistance * ib - eb) * inverseInductance;
+      dic = cc * (vc - neutral - resistance * ic - ec) * inverseInductance;
+    } else if (closedCount === 1) {
+      // One closed leg carries no current: the neutral sits at its terminal minus its EMF.
+      neutral = ca * (va - ea) + cb * (vb - eb) + cc * (vc - ec);
+    } else {
+      // All legs open: the neutral floats; take mid-bus less the EMF mean (symmetric stray capacitance).
+      neutral = 0.5 * vdc - (ea + eb + ec) / 3;
+    }
+
+    const torque = ke * (fa * ia + fb * ib + fc * ic);
+    const loadTorqueNm = loadTorque(load, speed, torque - friction * speed);
+    const inputPower = va * ia + vb * ib + vc * ic;
+
+    let rectifierCurrent = 0;
+    let dvdc = 0;
+    if (rectifier !== null) {
+      const angle = rectifier.angularFrequency * t;
+      const source =
+        rectifier.peakLineV *
+        Math.max(Math.abs(Math.sin(angle)), Math.abs(Math.sin(angle - TWO_THIRDS_PI)), Math.abs(Math.sin(angle + TWO_THIRDS_PI)));
+      rectifierCurrent = source > vdc ? (source - vdc) / rectifier.sourceResistanceOhm : 0;
+      dvdc = (rectifierCurrent - inputPower / vdc) / rectifier.capacitanceF;
+    }
+
+    dx[S_CURRENT_A] = dia;
+    dx[S_CURRENT_B] = dib;
+    dx[S_CURRENT_C] = dic;
+    dx[S_SPEED] = (torque - loadTorqueNm - friction * speed) * inverseInertia;
+    dx[S_ANGLE] = speed;
+    dx[S_DC_BUS] = dvdc;
+    dx[S_ENERGY_IN] = inputPower;
+    dx[S_ENERGY_COPPER] = resistance * (ia * ia + ib * ib + ic * ic);
+    dx[S_ENERGY_LOAD] = loadTorqueNm * speed;
+    dx[S_ENERGY_FRICTION] = friction * speed * speed;
+
+    aux[AUX_NEUTRAL_V] = neutral;
+    aux[AUX_TORQUE] = torque;
+    aux[AUX_LOAD_TORQUE] = loadTorqueNm;
+    aux[AUX_INPUT_POWER] = inputPower;
+    aux[AUX_EMF] = ea;
+    aux[AUX_EMF + 1] = eb;
+    aux[AUX_EMF + 2] = ec;
+    // A floating phase shows its EMF between terminal and neutral.
+    aux[AUX_PHASE_V] = ca === 1 ? va - neutral : ea;
+    aux[AUX_PHASE_V + 1] = cb === 1 ? vb - neutral : eb;
+    aux[AUX_PHASE_V + 2] = cc === 1 ? vc - neutral : ec;
+    aux[AUX_TERMINAL_V] = ca === 1 ? va : neutral + ea;
+    aux[AUX_TERMINAL_V + 1] = cb === 1 ? vb : neutral + eb;
+    aux[AUX_TERMINAL_V + 2] = cc === 1 ? vc : neutral + ec;
+    aux[AUX_RECTIFIER_CURRENT] = rectifierCurrent;
+  };
+}
+
+/**
+ * Builds the periodic lookup table for a sampled back-EMF shape (first sample repeated at the end).
+ * @param shape samples over one electrical period from 0 [-]
+ */
+export function shapeTableFrom(shape: readonly number[]): Float64Array {
+  const table = new Float64Array(shape.length + 1);
+  shape.forEach((value, index) => {
+    table[index] = value;
+  });
+  table[shape.length] = shape[0] as number;
+  return table;
+}

@@ -1,0 +1,833 @@
+/**
+ * Time-domain simulation of a star-connected BLDC on its six-step inverter: fixed-step RK4 on a
+ * nominal grid, with every switching instant (Hall commutation, a freewheeling diode's current
+ * reaching zero, a floating phase reaching a rail, a hysteresis threshold, a PWM edge, a load step)
+ * located inside its step and stepped to exactly, so the solution keeps its fourth order across
+ * the discontinuities of the inverter.
+ *
+ * References:
+ * [1] P. Pillay, R. Krishnan, "Modeling, simulation, and analysis of permanent-magnet motor drives,
+ *     Part II: The brushless DC motor drive", IEEE Trans. Industry Applications 25(2), 1989, 274–279.
+ * [2] R. Krishnan, Electric Motor Drives: Modeling, Analysis, and Control, Prentice Hall, 2001, ch. 9.
+ * [3] E. Hairer, S. P. Nørsett, G. Wanner, Solving Ordinary Differential Equations I, 1993, §II.6
+ *     (discontinuities: integrate to the switching point, then restart).
+ */
+import type { BldcSimulationParams } from '../contracts.js';
+import { CalcInputError, requireInRange, requireNonNegative, requirePositive } from '../errors.js';
+import { PiController, defaultGains, rampedReference, type ControllerGains } from './controller.js';
+import { createRk4Workspace, locateEvent, rk4Step, type Rk4Workspace } from './integrator.js';
+import {
+  FIRST_BOUNDARY_RAD,
+  LEG_DIODE_HIGH,
+  LEG_DIODE_LOW,
+  LEG_HIGH,
+  LEG_LOW,
+  LEG_OPEN,
+  SECTOR_HIGH_LEG,
+  SECTOR_LOW_LEG,
+  SECTOR_RAD,
+  hallSector,
+  legFactor,
+  offLegMode,
+  sectorCount,
+} from './inverter.js';
+import { LOAD_CONSTANT, createLoadState, type LoadInput, type LoadState } from './load.js';
+import {
+  AUX_EMF,
+  AUX_INPUT_POWER,
+  AUX_LOAD_TORQUE,
+  AUX_PHASE_V,
+  AUX_SIZE,
+  AUX_TERMINAL_V,
+  AUX_TORQUE,
+  S_ANGLE,
+  S_CURRENT_A,
+  S_DC_BUS,
+  S_ENERGY_COPPER,
+  S_ENERGY_FRICTION,
+  S_ENERGY_IN,
+  S_ENERGY_LOAD,
+  S_SPEED,
+  STATE_SIZE,
+  createBldcDerivative,
+  effectiveInductance,
+  electricalTimeConstant,
+  halfTransitionFromFlatTop,
+  shapeTableFrom,
+  validateSimulationParams,
+  type Derivative,
+} from './model.js';
+import { runToEnd, type ProgressOptions, type SteppedRun } from './progress.js';
+import { DEFAULT_STEADY_WINDOW_FRACTION, SummaryTracker, createSeries, type SimulationSeries, type SimulationSummary } from './summary.js';
+
+/** Integration step when the caller gives none [s]. */
+export const DEFAULT_STEP_S = 1e-6;
+/** Largest step as a fraction of the electrical time constant (L − M)/R and of R_s·C [-] (accuracy of RK4; common practice). */
+export const MAX_STEP_FRACTION_OF_TIME_CONSTANT = 0.1;
+/** Most grid steps one run may take [-] (guard against a run that would not end in reasonable time). */
+export const MAX_SIMULATION_STEPS = 50_000_000;
+/** Points of the decimated output when the caller gives none [-]. */
+export const DEFAULT_OUTPUT_POINTS = 2000;
+/** Bounds on the output points [-] (memory stays bounded whatever the duration). */
+export const MIN_OUTPUT_POINTS = 10;
+export const MAX_OUTPUT_POINTS = 200_000;
+/** Sampling period of the speed and current controllers [s] (a 20 kHz digital drive; common practice). */
+export const DEFAULT_CONTROL_PERIOD_S = 50e-6;
+/** PWM carrier frequency of the switched mode [Hz] (common practice for small drives). */
+export const DEFAULT_PWM_FREQUENCY_HZ = 20_000;
+/** Speed ramp time as a share of the run when the caller gives none [-] (common practice, no source). */
+export const DEFAULT_RAMP_FRACTION_OF_DURATION = 0.25;
+/** Hysteresis band as a share of the current limit [-] (common practice, no source). */
+export const DEFAULT_HYSTERESIS_BAND_FRACTION = 0.05;
+/** Series resistance of the supply and rectifier diodes when the caller gives none [Ω] (value from memory). */
+export const DEFAULT_SOURCE_RESISTANCE_OHM = 0.05;
+/** Switching events one grid step may contain before the run stops with an error [-] (guard). */
+export const MAX_EVENTS_PER_STEP = 64;
+
+const RPM_TO_RAD_S = (2 * Math.PI) / 60;
+
+export type PwmMode = 'averaged' | 'switched';
+export type CurrentControl = 'pi' | 'hysteresis';
+
+/** DC-link supply: a stiff bus at params.dcBusV, or a six-pulse diode rectifier with a DC-link capacitor. */
+export type SupplyInput =
+  | { kind: 'dc' }
+  | { kind: 'rectifier'; lineVoltageV: number; frequencyHz: number; capacitanceF: number; sourceResistanceOhm?: number };
+
+/** Everything a run needs. Units in the names; see the README section for defaults. */
+export interface SimulationInput {
+  params: BldcSimulationParams;
+  load: LoadInput;
+  /** Set speed of the PI speed loop [rpm]; without it the drive applies the full bus (no speed loop). */
+  setSpeedRpm?: number;
+  /** Time of the speed reference ramp from 0 to set speed [s]; default DEFAULT_RAMP_FRACTION_OF_DURATION × durationS. */
+  speedRampS?: number;
+  /** Current limit on the peak phase current [A]; without it no limit. */
+  currentLimitA?: number;
+  /** How the current is held to its reference: sampled PI on the duty, or hysteresis on the upper switch. */
+  currentControl?: CurrentControl;
+  /** Width of the hysteresis band [A]; default DEFAULT_HYSTERESIS_BAND_FRACTION × currentLimitA. */
+  hysteresisBandA?: number;
+  /** PWM of the upper switch: averaged (the leg applies duty × V_dc) or switched at frequencyHz. */
+  pwm?: { mode: PwmMode; frequencyHz?: number };
+  controlPeriodS?: number;
+  gains?: Partial<ControllerGains>;
+  supply?: SupplyInput;
+  durationS: number;
+  stepS?: number;
+  outputPoints?: number;
+  /** Share of the run at its end used for ripple and efficiency [-]. */
+  steadyWindowFraction?: number;
+  /** Initial mechanical rotor angle [rad]; default 0 (phase a back-EMF rising zero crossing). */
+  initialAngleRad?: number;
+}
+
+/** Counters of a run. */
+export interface SimulationStats {
+  steps: number;
+  stepS: number;
+  stateEvents: number;
+  timeEvents: number;
+  controlPeriodS: number;
+  gains: ControllerGains;
+}
+
+export interface SimulationResult {
+  summary: SimulationSummary;
+  series: SimulationSeries;
+  stats: SimulationStats;
+  /** What was defaulted and assumed, for the report. */
+  assumptions: string[];
+}
+
+/** The input with every default resolved and every rule checked. */
+interface ResolvedInput {
+  params: BldcSimulationParams;
+  load: LoadState;
+  stepAtTimeS: number | null;
+  stepAtSpeedRadS: number | null;
+  totalInertiaKgM2: number;
+  setSpeedRadS: number | null;
+  rampS: number;
+  currentLimitA: number;
+  hysteresis: boolean;
+  bandA: number;
+  switched: boolean;
+  pwmPeriodS: number;
+  controlEvery: number;
+  controlPeriodS: number;
+  gains: ControllerGains;
+  rectifier: null | { peakLineV: number; angularFrequency: number; capacitanceF: number; sourceResistanceOhm: number };
+  durationS: number;
+  stepS: number;
+  steps: number;
+  recordEvery: number;
+  capacity: number;
+  windowStartS: number;
+  initialAngleRad: number;
+  assumptions: string[];
+}
+
+/**
+ * Checks a simulation input and fills the defaults; throws CalcInputError naming the field.
+ * @param input the run's input
+ * @param paramsField name of the parameters in error messages ("params" or "design.simulationParams")
+ */
+export function resolveSimulationInput(input: SimulationInput, paramsField = 'params'): ResolvedInput {
+  const params = input.params;
+  validateSimulationParams(params, paramsField);
+  const assumptions: string[] = [];
+  requirePositive('durationS', input.durationS);
+  const stepS = input.stepS ?? DEFAULT_STEP_S;
+  if (input.stepS === undefined) assumptions.push(`step ${DEFAULT_STEP_S} s (DEFAULT_STEP_S)`);
+  requirePositive('stepS', stepS);
+  const timeConstant = electricalTimeConstant(params);
+  const maxStep = MAX_STEP_FRACTION_OF_TIME_CONSTANT * timeConstant;
+  if (stepS > maxStep) {
+    throw new CalcInputError('stepS', `must be at most ${maxStep.toPrecision(3)} s, a tenth of the electrical time constant (L − M)/R = ${timeConstant.toPrecision(3)} s`);
+  }
+  const steps = Math.round(input.durationS / stepS);
+  if (steps < 1) throw new CalcInputError('stepS', 'must not exceed durationS');
+  if (steps > MAX_SIMULATION_STEPS) throw new CalcInputError('stepS', `gives ${steps} steps; at most ${MAX_SIMULATION_STEPS} are allowed (shorten durationS or lengthen stepS)`);
+
+  const { state: load, stepAtTimeS, stepAtSpeedRadS } = createLoadState(input.load, input.setSpeedRpm);
+  let stepTime = stepAtTimeS;
+  if (input.load.kind === 'step' && stepTime === null && stepAtSpeedRadS === null) {
+    stepTime = input.durationS / 2;
+    assumptions.push('load step at half the run (no atTimeS or atSpeedRpm given)');
+  }
+  const totalInertiaKgM2 = params.inertiaKgM2 + (input.load.inertiaKgM2 ?? 0);
+
+  let setSpeedRadS: number | null = null;
+  let rampS = 0;
+  if (input.setSpeedRpm !== undefined) {
+    requirePositive('setSpeedRpm', input.setSpeedRpm);
+    setSpeedRadS = input.setSpeedRpm * RPM_TO_RAD_S;
+    rampS = input.speedRampS ?? DEFAULT_RAMP_FRACTION_OF_DURATION * input.durationS;
+    if (input.speedRampS === undefined) assumptions.push(`speed ramp ${rampS} s (a quarter of the run)`);
+    requireNonNegative('speedRampS', rampS);
+  }
+  let currentLimitA = Infinity;
+  if (input.currentLimitA !== undefined) {
+    requirePositive('currentLimitA', input.currentLimitA);
+    currentLimitA = input.currentLimitA;
+  }
+  const hysteresis = input.currentControl === 'hysteresis';
+  let bandA = 0;
+  if (hysteresis) {
+    if (!Number.isFinite(currentLimitA) && setSpeedRadS === null) {
+      throw new CalcInputError('currentControl', 'hysteresis needs currentLimitA or setSpeedRpm');
+    }
+    bandA = input.hysteresisBandA ?? DEFAULT_HYSTERESIS_BAND_FRACTION * (Number.isFinite(currentLimitA) ? currentLimitA : 1);
+    requirePositive('hysteresisBandA', bandA);
+  }
+  const switched = !hysteresis && input.pwm?.mode === 'switched';
+  let pwmPeriodS = Infinity;
+  if (switched) {
+    const frequency = input.pwm?.frequencyHz ?? DEFAULT_PWM_FREQUENCY_HZ;
+    requirePositive('pwm.frequencyHz', frequency);
+    if (frequency * 2 * stepS > 1) throw new CalcInputError('pwm.frequencyHz', `must be at most 1/(2·stepS) = ${(1 / (2 * stepS)).toPrecision(3)} Hz`);
+    pwmPeriodS = 1 / frequency;
+  }
+  const requestedControlPeriod = input.controlPeriodS ?? DEFAULT_CONTROL_PERIOD_S;
+  requirePositive('controlPeriodS', requestedControlPeriod);
+  const controlEvery = Math.max(1, Math.round(requestedControlPeriod / stepS));
+  const controlPeriodS = controlEvery * stepS;
+
+  let rectifier: ResolvedInput['rectifier'] = null;
+  const supply = input.supply;
+  if (supply !== undefined && supply.kind === 'rectifier') {
+    requirePositive('supply.lineVoltageV', supply.lineVoltageV);
+    requirePositive('supply.frequencyHz', supply.frequencyHz);
+    requirePositive('supply.capacitanceF', supply.capacitanceF);
+    const sourceResistanceOhm = supply.sourceResistanceOhm ?? DEFAULT_SOURCE_RESISTANCE_OHM;
+    requirePositive('supply.sourceResistanceOhm', sourceResistanceOhm);
+    const linkTimeConstant = sourceResistanceOhm * supply.capacitanceF;
+    if (stepS > MAX_STEP_FRACTION_OF_TIME_CONSTANT * linkTimeConstant) {
+      throw new CalcInputError('stepS', `must be at most ${(MAX_STEP_FRACTION_OF_TIME_CONSTANT * linkTimeConstant).toPrecision(3)} s, a tenth of the DC-link time constant R_s·C`);
+    }
+    rectifier = { peakLineV: Math.SQRT2 * supply.lineVoltageV, angularFrequency: 2 * Math.PI * supply.frequencyHz, capacitanceF: supply.capacitanceF, sourceResistanceOhm };
+    if (supply.sourceResistanceOhm === undefined) assumptions.push(`supply resistance ${DEFAULT_SOURCE_RESISTANCE_OHM} Ω`);
+    assumptions.push('DC link pre-charged to the peak line-to-line voltage');
+  }
+
+  const inductance = effectiveInductance(params.phaseInductanceH, params.mutualInductanceH);
+  const nominalBus = rectifier === null ? params.dcBusV : rectifier.peakLineV;
+  const gains = { ...defaultGains(params.phaseResistanceOhm, inductance, params.backEmfConstantVsPerRad, totalInertiaKgM2, nominalBus, controlPeriodS), ...input.gains };
+  for (const [name, value] of Object.entries(gains)) requireNonNegative(`gains.${name}`, value);
+  if (input.gains === undefined && (setSpeedRadS !== null || Number.isFinite(currentLimitA))) {
+    assumptions.push('controller gains from the equivalent DC motor (pole–zero cancellation, symmetric optimum)');
+  }
+
+  const outputPoints = input.outputPoints ?? DEFAULT_OUTPUT_POINTS;
+  if (!Number.isInteger(outputPoints)) throw new CalcInputError('outputPoints', 'must be an integer');
+  requireInRange('outputPoints', outputPoints, MIN_OUTPUT_POINTS, MAX_OUTPUT_POINTS);
+  const recordEvery = Math.max(1, Math.ceil(steps / (outputPoints - 1)));
+  const capacity = Math.floor(steps / recordEvery) + 2;
+  const windowFraction = input.steadyWindowFraction ?? DEFAULT_STEADY_WINDOW_FRACTION;
+  requireInRange('steadyWindowFraction', windowFraction, 0.001, 1);
+  const initialAngleRad = input.initialAngleRad ?? 0;
+  if (!Number.isFinite(initialAngleRad)) throw new CalcInputError('initialAngleRad', 'must be a finite number');
+  if (params.backEmfShape === undefined && params.flatTopElectricalDeg !== 120) {
+    assumptions.push('trapezoid corners that do not fall on commutations are stepped over (local order loss)');
+  }
+
+  return {
+    params,
+    load,
+    stepAtTimeS: stepTime,
+    stepAtSpeedRadS,
+    totalInertiaKgM2,
+    setSpeedRadS,
+    rampS,
+    currentLimitA,
+    hysteresis,
+    bandA,
+    switched,
+    pwmPeriodS,
+    controlEvery,
+    controlPeriodS,
+    gains,
+    rectifier,
+    durationS: steps * stepS,
+    stepS,
+    steps,
+    recordEvery,
+    capacity,
+    windowStartS: steps * stepS * (1 - windowFraction),
+    initialAngleRad,
+    assumptions,
+  };
+}
+
+// Event indices: one per leg (diode current zero / floating phase at a rail), then the others.
+const EVENT_HALL = 3;
+const EVENT_HYSTERESIS = 4;
+const EVENT_STANDSTILL = 5;
+const EVENT_LOAD_STEP = 6;
+const EVENT_COUNT = 7;
+/** Relative overshoot of a floating phase beyond a rail that clamps it to its diode [-] (numerical tolerance). */
+const RAIL_TOLERANCE = 1e-9;
+
+/** The stepping engine. Construct with a resolved input; advance in chunks; read the result. */
+class BldcSimulation implements SteppedRun<SimulationResult> {
+  private readonly f: Derivative;
+  private readonly aux = new Float64Array(AUX_SIZE);
+  private auxStart = new Float64Array(AUX_SIZE);
+  private auxEnd = new Float64Array(AUX_SIZE);
+  private x = new Float64Array(STATE_SIZE);
+  private xTrial = new Float64Array(STATE_SIZE);
+  private k1 = new Float64Array(STATE_SIZE);
+  private kNext = new Float64Array(STATE_SIZE);
+  private readonly work: Rk4Workspace = createRk4Workspace(STATE_SIZE);
+  private readonly legMode = new Int32Array(3);
+  private readonly legFactor = new Float64Array(3);
+  private readonly closed = new Float64Array(3);
+  private g0 = new Float64Array(EVENT_COUNT);
+  private g1 = new Float64Array(EVENT_COUNT);
+  /** Per leg: 1 while a diode that just blocked at zero current must not be re-clamped at this same instant. */
+  private readonly railHold = new Uint8Array(3);
+  private railHoldAny = false;
+  private readonly due = new Uint8Array(EVENT_COUNT);
+  private readonly gAt: (tau: number) => number;
+  private readonly speedPi: PiController;
+  private readonly currentPi: PiController;
+  private readonly tracker: SummaryTracker;
+  private readonly series: SimulationSeries;
+
+  private t = 0;
+  private n = 0;
+  private k1Valid = false;
+  private highLeg = 0;
+  private lowLeg = 0;
+  private sectorIndex = 0;
+  private thetaPrev = 0;
+  private thetaNext = 0;
+  private duty = 1;
+  private currentRef = Infinity;
+  private hysteresisOn = true;
+  private pwmOn = true;
+  private pwmNextEdge = Infinity;
+  private pwmNextIsStart = true;
+  private pwmIndex = 0;
+  private stepPendingTime: number;
+  private stepPendingSpeed: number;
+  private refineEvent = 0;
+  private stateEvents = 0;
+  private timeEvents = 0;
+  private readonly tolerance: number;
+
+  constructor(private readonly input: ResolvedInput) {
+    const params = input.params;
+    this.f = createBldcDerivative({
+      phaseResistanceOhm: params.phaseResistanceOhm,
+      effectiveInductanceH: effectiveInductance(params.phaseInductanceH, params.mutualInductanceH),
+      backEmfConstantVsPerRad: params.backEmfConstantVsPerRad,
+      polePairs: params.polePairs,
+      totalInertiaKgM2: input.totalInertiaKgM2,
+      viscousFrictionNmsPerRad: params.viscousFrictionNmsPerRad,
+      halfTransition: halfTransitionFromFlatTop(params.flatTopElectricalDeg),
+      shapeTable: params.backEmfShape === undefined ? null : shapeTableFrom(params.backEmfShape),
+      legFactor: this.legFactor,
+      closed: this.closed,
+      load: input.load,
+      rectifier: input.rectifier,
+      aux: this.aux,
+    });
+    this.gAt = (tau: number): number => this.trial(tau, this.refineEvent);
+    this.speedPi = new PiController(input.gains.speedKp, input.gains.speedKi, input.controlPeriodS, 0, input.currentLimitA);
+    this.currentPi = new PiController(input.gains.currentKp, input.gains.currentKi, input.controlPeriodS, 0, 1);
+    this.tracker = new SummaryTracker(input.windowStartS, input.setSpeedRadS ?? Number.NaN);
+    this.series = createSeries(input.capacity);
+    this.tolerance = 1e-9 * input.stepS;
+    this.stepPendingTime = input.stepAtTimeS ?? Infinity;
+    this.stepPendingSpeed = input.stepAtSpeedRadS ?? Infinity;
+
+    this.x[S_DC_BUS] = input.rectifier === null ? params.dcBusV : input.rectifier.peakLineV;
+    this.x[S_ANGLE] = input.initialAngleRad;
+    const electrical = params.polePairs * input.initialAngleRad;
+    this.sectorIndex = hallSector(electrical);
+    const count = sectorCount(electrical);
+    this.thetaPrev = (FIRST_BOUNDARY_RAD + SECTOR_RAD * count) / params.polePairs;
+    this.thetaNext = (FIRST_BOUNDARY_RAD + SECTOR_RAD * (count + 1)) / params.polePairs;
+    this.highLeg = SECTOR_HIGH_LEG[this.sectorIndex] as number;
+    this.lowLeg = SECTOR_LOW_LEG[this.sectorIndex] as number;
+    this.legMode.fill(LEG_OPEN);
+    this.refreshLegs();
+    this.control();
+    if (input.switched) {
+      this.pwmNextEdge = 0;
+      this.pwmNextIsStart = true;
+      this.handleTimeEvents();
+    }
+    this.record();
+  }
+
+  get done(): boolean {
+    return this.n >= this.input.steps;
+  }
+
+  advance(maxSteps: number): number {
+    const last = Math.min(this.input.steps, this.n + maxSteps);
+    while (this.n < last) this.gridStep();
+    return this.n / this.input.steps;
+  }
+
+  result(): SimulationResult {
+    if (!this.done) throw new Error('the simulation has not finished');
+    const x = this.x;
+    this.ensureStart();
+    const params = this.input.params;
+    const inductance = effectiveInductance(params.phaseInductanceH, params.mutualInductanceH);
+    const ia = x[S_CURRENT_A] as number;
+    const ib = x[S_CURRENT_A + 1] as number;
+    const ic = x[S_CURRENT_A + 2] as number;
+    const speed = x[S_SPEED] as number;
+    const energies = {
+      inputJ: x[S_ENERGY_IN] as number,
+      copperLossJ: x[S_ENERGY_COPPER] as number,
+      loadJ: x[S_ENERGY_LOAD] as number,
+      frictionJ: x[S_ENERGY_FRICTION] as number,
+      kineticJ: 0.5 * this.input.totalInertiaKgM2 * speed * speed,
+      magneticJ: 0.5 * inductance * (ia * ia + ib * ib + ic * ic),
+    };
+    return {
+      summary: this.tracker.finish(speed, energies, energies.inputJ, energies.loadJ, this.series),
+      series: this.series,
+      stats: {
+        steps: this.input.steps,
+        stepS: this.input.stepS,
+        stateEvents: this.stateEvents,
+        timeEvents: this.timeEvents,
+        controlPeriodS: this.input.controlPeriodS,
+        gains: this.input.gains,
+      },
+      assumptions: this.input.assumptions,
+    };
+  }
+
+  /** One step of the nominal grid, cut at every time event and state event inside it. */
+  private gridStep(): void {
+    const tEnd = (this.n + 1) * this.input.stepS;
+    const tolerance = this.tolerance;
+    for (let guard = 0; ; guard++) {
+      if (guard > MAX_EVENTS_PER_STEP) {
+        throw new CalcInputError('stepS', `is too large: more than ${MAX_EVENTS_PER_STEP} switching events within one step near t = ${this.t.toPrecision(6)} s`);
+      }
+      if (tEnd - this.t <= tolerance) break;
+      const timeEvent = this.nextTimeEvent();
+      if (timeEvent - this.t <= tolerance) {
+        this.handleTimeEvents();
+        continue;
+      }
+      const target = timeEvent < tEnd - tolerance ? timeEvent : tEnd;
+      this.substep(target - this.t);
+      if (Math.abs(target - this.t) <= tolerance) this.t = target;
+    }
+    this.t = tEnd;
+    this.n += 1;
+    const x = this.x;
+    const speed = x[S_SPEED] as number;
+    if (!Number.isFinite(speed) || !Number.isFinite(x[S_CURRENT_A] as number) || !Number.isFinite(x[S_DC_BUS] as number)) {
+      throw new CalcInputError('stepS', `gives a non-finite state at t = ${this.t.toPrecision(6)} s: the step is too large for this system`);
+    }
+    this.ensureStart();
+    this.tracker.sample(
+      this.t,
+      speed,
+      this.auxStart[AUX_TORQUE] as number,
+      x[S_CURRENT_A] as number,
+      x[S_CURRENT_A + 1] as number,
+      x[S_CURRENT_A + 2] as number,
+      x[S_ENERGY_IN] as number,
+      x[S_ENERGY_LOAD] as number,
+    );
+    if (this.n % this.input.recordEvery === 0 || this.n === this.input.steps) this.record();
+    if (this.n % this.input.controlEvery === 0) this.control();
+  }
+
+  /** Advances by at most `h`, stopping at the first state event inside (which it then handles). */
+  private substep(h: number): void {
+    this.ensureStart();
+    let stepLength = h;
+    let refined = -1;
+    for (let guard = 0; guard < MAX_EVENTS_PER_STEP; guard++) {
+      this.trial(stepLength, -1);
+      let earliest = -1;
+      let earliestTau = Infinity;
+      for (let j = 0; j < EVENT_COUNT; j++) {
+        if (!this.crossed(j)) continue;
+        const a = this.g0[j] as number;
+        const tau = a > 0 ? (stepLength * a) / (a - (this.g1[j] as number)) : 0;
+        if (tau < earliestTau) {
+          earliestTau = tau;
+          earliest = j;
+        }
+      }
+      if (earliest < 0) {
+        this.commit(stepLength);
+        return;
+      }
+      if (earliestTau === 0) {
+        // An event due at the very start (a diode entered with zero current, a boundary sitting on θ).
+        for (let j = 0; j < EVENT_COUNT; j++) this.due[j] = (this.g0[j] as number) === 0 && this.crossed(j) ? 1 : 0;
+        this.handleEvents(true);
+        return;
+      }
+      if (refined >= 0 && earliestTau >= stepLength * (1 - 1e-6)) {
+        for (let j = 0; j < EVENT_COUNT; j++) this.due[j] = this.crossed(j) ? 1 : 0;
+        this.commit(stepLength);
+        this.handleEvents(false);
+        return;
+      }
+      this.refineEvent = earliest;
+      stepLength = locateEvent(this.gAt, 0, this.g0[earliest] as number, stepLength, this.g1[earliest] as number, this.tolerance);
+      refined = earliest;
+    }
+    throw new CalcInputError('stepS', `is too large: switching events could not be separated near t = ${this.t.toPrecision(6)} s`);
+  }
+
+  /** Steps from the committed state by `tau` into xTrial; returns event `j`'s value there (or 0). */
+  private trial(tau: number, j: number): number {
+    rk4Step(this.f, this.t, this.x, this.k1, tau, this.work, this.xTrial);
+    this.f(this.t + tau, this.xTrial, this.kNext);
+    this.auxEnd.set(this.aux);
+    if (j >= 0) return this.eventValue(j, this.xTrial, this.auxEnd);
+    this.eventValues(this.xTrial, this.auxEnd, this.g1);
+    return 0;
+  }
+
+  private crossed(j: number): boolean {
+    const a = this.g0[j] as number;
+    const b = this.g1[j] as number;
+    if (a > 0) return b <= 0;
+    return a === 0 && b < 0 && j !== EVENT_STANDSTILL && j !== EVENT_LOAD_STEP;
+  }
+
+  private commit(h: number): void {
+    let swap = this.x;
+    this.x = this.xTrial;
+    this.xTrial = swap;
+    swap = this.k1;
+    this.k1 = this.kNext;
+    this.kNext = swap;
+    swap = this.auxStart;
+    this.auxStart = this.auxEnd;
+    this.auxEnd = swap;
+    swap = this.g0;
+    this.g0 = this.g1;
+    this.g1 = swap;
+    this.t += h;
+    this.k1Valid = true;
+    if (this.railHoldAny && h > 0) {
+      this.railHold.fill(0);
+      this.railHoldAny = false;
+    }
+  }
+
+  /**
+   * Makes k1, auxStart and the event values g0 match the committed state; snaps a floating phase
+   * that would exceed a rail to its diode (unless that diode has just blocked at this instant).
+   */
+  private ensureStart(): void {
+    if (this.k1Valid) return;
+    for (let pass = 0; pass < 4 && !this.k1Valid; pass++) {
+      this.f(this.t, this.x, this.k1);
+      this.auxStart.set(this.aux);
+      this.k1Valid = true;
+      const vdc = this.x[S_DC_BUS] as number;
+      for (let k = 0; k < 3; k++) {
+        if (this.legMode[k] !== LEG_OPEN || this.railHold[k] === 1) continue;
+        const terminal = this.auxStart[AUX_TERMINAL_V + k] as number;
+        if (terminal > vdc * (1 + RAIL_TOLERANCE)) this.setLegMode(k, LEG_DIODE_HIGH);
+        else if (terminal < -vdc * RAIL_TOLERANCE) this.setLegMode(k, LEG_DIODE_LOW);
+      }
+    }
+    this.eventValues(this.x, this.auxStart, this.g0);
+  }
+
+  private setLegMode(k: number, mode: number): void {
+    this.legMode[k] = mode;
+    this.legFactor[k] = legFactor(mode, this.highFactor());
+    this.closed[k] = mode === LEG_OPEN ? 0 : 1;
+    this.k1Valid = false;
+  }
+
+  private highFactor(): number {
+    return this.input.hysteresis || this.input.switched ? 1 : this.duty;
+  }
+
+  private gateOn(): boolean {
+    if (this.input.hysteresis) return this.hysteresisOn;
+    if (this.input.switched) return this.pwmOn;
+    return true;
+  }
+
+  /** Sets each leg from the sector and the gate: commanded legs switch, released legs freewheel or float. */
+  private refreshLegs(): void {
+    const gate = this.gateOn();
+    for (let k = 0; k < 3; k++) {
+      let mode: number;
+      if (k === this.highLeg && gate) mode = LEG_HIGH;
+      else if (k === this.lowLeg) mode = LEG_LOW;
+      else {
+        const previous = this.legMode[k] as number;
+        mode = previous === LEG_HIGH || previous === LEG_LOW ? offLegMode(this.x[S_CURRENT_A + k] as number) : previous;
+      }
+      this.setLegMode(k, mode);
+    }
+  }
+
+  private maxCurrent(x: Float64Array): number {
+    return Math.max(Math.abs(x[S_CURRENT_A] as number), Math.abs(x[S_CURRENT_A + 1] as number), Math.abs(x[S_CURRENT_A + 2] as number));
+  }
+
+  /** Value of event function j; positive while nothing happens, crossing zero at the event (∞ when disarmed). */
+  private eventValue(j: number, x: Float64Array, aux: Float64Array): number {
+    if (j < 3) {
+      const mode = this.legMode[j];
+      const current = x[S_CURRENT_A + j] as number;
+      if (mode === LEG_DIODE_LOW) return current;
+      if (mode === LEG_DIODE_HIGH) return -current;
+      if (mode === LEG_OPEN) {
+        const terminal = aux[AUX_TERMINAL_V + j] as number;
+        return Math.min((x[S_DC_BUS] as number) - terminal, terminal);
+      }
+      return Infinity;
+    }
+    if (j === EVENT_HALL) {
+      const theta = x[S_ANGLE] as number;
+      return Math.min(theta - this.thetaPrev, this.thetaNext - theta);
+    }
+    if (j === EVENT_HYSTERESIS) {
+      if (!this.input.hysteresis || !Number.isFinite(this.currentRef)) return Infinity;
+      const measured = this.maxCurrent(x);
+      const half = 0.5 * this.input.bandA;
+      return this.hysteresisOn ? this.currentRef + half - measured : measured - (this.currentRef - half);
+    }
+    if (j === EVENT_STANDSTILL) {
+      return this.input.load.kind === LOAD_CONSTANT && this.input.load.active === 1 ? (x[S_SPEED] as number) : Infinity;
+    }
+    return this.stepPendingSpeed - (x[S_SPEED] as number);
+  }
+
+  private eventValues(x: Float64Array, aux: Float64Array, out: Float64Array): void {
+    for (let j = 0; j < EVENT_COUNT; j++) out[j] = this.eventValue(j, x, aux);
+  }
+
+  /** Applies every event marked in `due` (crossed in the last committed step, or due now when atStart). */
+  private handleEvents(atStart: boolean): void {
+    const x = this.x;
+    for (let j = 0; j < EVENT_COUNT; j++) {
+      if (this.due[j] === 0) continue;
+      this.stateEvents += 1;
+      if (j < 3) {
+        const mode = this.legMode[j];
+        if (mode === LEG_OPEN) {
+          // A floating phase reached a rail: its diode starts to conduct.
+          const terminal = this.auxStart[AUX_TERMINAL_V + j] as number;
+          this.setLegMode(j, terminal > 0.5 * (x[S_DC_BUS] as number) ? LEG_DIODE_HIGH : LEG_DIODE_LOW);
+        } else {
+          // The freewheeling current reached zero: the diode blocks and the phase floats ([1] Table I).
+          if (atStart) {
+            this.railHold[j] = 1;
+            this.railHoldAny = true;
+          }
+          const residual = x[S_CURRENT_A + j] as number;
+          x[S_CURRENT_A + j] = 0;
+          const other1 = (j + 1) % 3;
+          const other2 = (j + 2) % 3;
+          const share = 0.5 * residual;
+          x[S_CURRENT_A + other1] = (x[S_CURRENT_A + other1] as number) + share;
+          x[S_CURRENT_A + other2] = (x[S_CURRENT_A + other2] as number) + share;
+          this.setLegMode(j, LEG_OPEN);
+        }
+      } else if (j === EVENT_HALL) {
+        const theta = x[S_ANGLE] as number;
+        const width = SECTOR_RAD / this.input.params.polePairs;
+        if (theta >= this.thetaNext - 1e-12 * width) {
+          this.sectorIndex = (this.sectorIndex + 1) % 6;
+          this.thetaPrev = this.thetaNext;
+          this.thetaNext += width;
+        } else {
+          this.sectorIndex = (this.sectorIndex + 5) % 6;
+          this.thetaNext = this.thetaPrev;
+          this.thetaPrev -= width;
+        }
+        this.highLeg = SECTOR_HIGH_LEG[this.sectorIndex] as number;
+        this.lowLeg = SECTOR_LOW_LEG[this.sectorIndex] as number;
+        this.refreshLegs();
+      } else if (j === EVENT_HYSTERESIS) {
+        this.hysteresisOn = !this.hysteresisOn;
+        this.refreshLegs();
+      } else if (j === EVENT_STANDSTILL) {
+        x[S_SPEED] = 0;
+        this.k1Valid = false;
+      } else if (j === EVENT_LOAD_STEP) {
+        this.input.load.active = 1;
+        this.stepPendingSpeed = Infinity;
+        this.k1Valid = false;
+      }
+    }
+    this.k1Valid = false;
+  }
+
+  private nextTimeEvent(): number {
+    return Math.min(this.pwmNextEdge, this.stepPendingTime);
+  }
+
+  private handleTimeEvents(): void {
+    const now = this.t + this.tolerance;
+    if (this.stepPendingTime <= now) {
+      this.input.load.active = 1;
+      this.stepPendingTime = Infinity;
+      this.k1Valid = false;
+      this.timeEvents += 1;
+    }
+    while (this.pwmNextEdge <= now) {
+      this.timeEvents += 1;
+      const period = this.input.pwmPeriodS;
+      if (this.pwmNextIsStart) {
+        this.pwmIndex = Math.round(this.pwmNextEdge / period);
+        const start = this.pwmIndex * period;
+        if (this.duty >= 1) {
+          this.pwmOn = true;
+          this.pwmNextEdge = start + period;
+        } else if (this.duty <= 0) {
+          this.pwmOn = false;
+          this.pwmNextEdge = start + period;
+        } else {
+          this.pwmOn = true;
+          this.pwmNextEdge = start + this.duty * period;
+          this.pwmNextIsStart = false;
+        }
+      } else {
+        this.pwmOn = false;
+        this.pwmNextEdge = (this.pwmIndex + 1) * period;
+        this.pwmNextIsStart = true;
+      }
+      this.refreshLegs();
+    }
+  }
+
+  /** One controller sample: speed PI → current reference; current PI → duty, or the hysteresis gate. */
+  private control(): void {
+    const input = this.input;
+    const x = this.x;
+    const speed = x[S_SPEED] as number;
+    if (input.setSpeedRadS !== null) {
+      this.currentRef = this.speedPi.update(rampedReference(this.t, input.setSpeedRadS, input.rampS) - speed, 0);
+    } else {
+      this.currentRef = input.currentLimitA;
+    }
+    const measured = this.maxCurrent(x);
+    if (input.hysteresis) {
+      // The thresholds moved with the reference: the event values must be recomputed.
+      this.k1Valid = false;
+      const half = 0.5 * input.bandA;
+      const before = this.hysteresisOn;
+      if (this.hysteresisOn && measured >= this.currentRef + half) this.hysteresisOn = false;
+      else if (!this.hysteresisOn && measured <= this.currentRef - half) this.hysteresisOn = true;
+      if (before !== this.hysteresisOn) this.refreshLegs();
+      return;
+    }
+    let duty = 1;
+    if (Number.isFinite(this.currentRef)) {
+      // Back-EMF feed-forward of the line flat-top EMF, 2·k_e·ω / V_dc ([2] §9.5).
+      const feedForward = (2 * input.params.backEmfConstantVsPerRad * speed) / (x[S_DC_BUS] as number);
+      duty = this.currentPi.update(this.currentRef - measured, feedForward);
+    }
+    if (duty !== this.duty) {
+      this.duty = duty;
+      if (!input.switched) this.refreshLegs();
+    }
+  }
+
+  private record(): void {
+    this.ensureStart();
+    const series = this.series;
+    const i = series.length;
+    if (i >= this.input.capacity) return;
+    const values = series.values;
+    const x = this.x;
+    const aux = this.auxStart;
+    const vdc = x[S_DC_BUS] as number;
+    values.timeS[i] = this.t;
+    values.speedRpm[i] = ((x[S_SPEED] as number) * 60) / (2 * Math.PI);
+    values.torqueNm[i] = aux[AUX_TORQUE] as number;
+    values.loadTorqueNm[i] = aux[AUX_LOAD_TORQUE] as number;
+    values.phaseCurrentAA[i] = x[S_CURRENT_A] as number;
+    values.phaseCurrentBA[i] = x[S_CURRENT_A + 1] as number;
+    values.phaseCurrentCA[i] = x[S_CURRENT_A + 2] as number;
+    values.phaseVoltageAV[i] = aux[AUX_PHASE_V] as number;
+    values.phaseVoltageBV[i] = aux[AUX_PHASE_V + 1] as number;
+    values.phaseVoltageCV[i] = aux[AUX_PHASE_V + 2] as number;
+    values.backEmfAV[i] = aux[AUX_EMF] as number;
+    values.backEmfBV[i] = aux[AUX_EMF + 1] as number;
+    values.backEmfCV[i] = aux[AUX_EMF + 2] as number;
+    values.dcLinkCurrentA[i] = (aux[AUX_INPUT_POWER] as number) / vdc;
+    values.dcBusV[i] = vdc;
+    series.length = i + 1;
+  }
+}
+
+/**
+ * Starts a simulation that the caller advances in chunks (for a worker with progress and cancel).
+ * @param input run input (see SimulationInput; SI units, rpm where named)
+ * @param paramsField how the parameters are named in error messages
+ * @returns a stepped run: advance(maxSteps) → fraction done [-], done, result()
+ */
+export function startSimulation(input: SimulationInput, paramsField = 'params'): SteppedRun<SimulationResult> {
+  return new BldcSimulation(resolveSimulationInput(input, paramsField));
+}
+
+/**
+ * Runs a simulation to its end (see the module comment for the method).
+ * @param input run input
+ * @param options progress callback, cancel check, chunk size
+ * @returns summary, decimated series (Float64Array), counters and assumptions
+ * References: Pillay & Krishnan (1989); Krishnan (2001) ch. 9; Hairer, Nørsett & Wanner (1993).
+ */
+export function simulate(input: SimulationInput, options: ProgressOptions = {}): SimulationResult {
+  return runToEnd(startSimulation(input), options);
+}
