@@ -15,7 +15,7 @@ export const authApi = {
   me: () => api.request<MeResponse>('GET', '/api/auth/me', noAuthHook),
   login: (input: LoginInput) => api.post<MeResponse>('/api/auth/login', input, noAuthHook),
   logout: () => api.post<void>('/api/auth/logout', undefined, noAuthHook),
-  changePassword: (input: ChangePasswordInput) => api.post<void>('/api/auth/password', input, noAuthHook),
+  changePassword: (input: ChangePasswordInput) => api.post<void>('/api/auth/password', input),
   acceptInvitation: (input: AcceptInvitationInput) =>
     api.post<MeResponse>('/api/auth/invitations/accept', input, noAuthHook),
 };

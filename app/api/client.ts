@@ -48,7 +48,7 @@ export class ApiError extends Error {
 
   /** True when the server refused an edit because someone else saved the row first. */
   get isStaleVersion(): boolean {
-    return this.status === 409;
+    return this.status === 409 && this.code === 'stale-version';
   }
 }
 
