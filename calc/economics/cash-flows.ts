@@ -93,7 +93,7 @@ function npvWithSlope(rate: number, cashFlows: readonly number[]): number {
  * References: [1] Ch. 5; checked against [2].
  */
 export function internalRateOfReturn(cashFlows: readonly number[]): number | null {
-  const tolerance = 1e-9 * Math.max(1, Math.abs(cashFlows[0] ?? 1));
+  const tolerance = 1e-12 * Math.max(1, Math.abs(cashFlows[0] ?? 1));
   // Fast path: plain Newton from the first-year return; NPV of a conventional investment is convex
   // and decreasing in the rate, so this converges in a few steps. Anything odd falls to the bracket.
   const first = cashFlows[0] ?? 0;
@@ -104,7 +104,7 @@ export function internalRateOfReturn(cashFlows: readonly number[]): number | nul
     if (!(lastSlope < 0)) break;
     const next = guess - value / lastSlope;
     if (!(next > IRR_LOWER) || !Number.isFinite(next)) break;
-    if (Math.abs(next - guess) < 1e-13 * Math.max(1, Math.abs(guess))) return next;
+    if (Math.abs(next - guess) < 1e-15 * Math.max(1, Math.abs(guess))) return next;
     guess = next;
   }
   return bracketedRate(cashFlows, tolerance);
