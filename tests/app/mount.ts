@@ -80,14 +80,19 @@ export const ChartPanelStub = defineComponent({
 /**
  * Mount a page the way the app shows it: inside QLayout > QPageContainer (QPage needs both).
  */
-export function mountInLayout(page: Component, harness: AppHarness, options: ComponentMountingOptions<Component> = {}) {
+export function mountInLayout(
+  page: Component,
+  harness: AppHarness,
+  options: ComponentMountingOptions<Component> = {},
+  pageProps: Record<string, unknown> = {},
+) {
   const Wrapper = defineComponent({
     setup: () => () =>
       h(
         // Resolved globally by the Quasar plugin.
         resolveQ('QLayout'),
         { view: 'hHh lpR fFf' },
-        { default: () => h(resolveQ('QPageContainer'), null, { default: () => h(page) }) },
+        { default: () => h(resolveQ('QPageContainer'), null, { default: () => h(page, pageProps) }) },
       ),
   });
   return mount(Wrapper, {
