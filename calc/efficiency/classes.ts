@@ -160,9 +160,8 @@ function iec50HzUnroundedPct(ratedPowerKw: number, poles: Poles, ieClass: Exclud
     return efficiencyFromLosses(lossesPerOutput(iec50HzUnroundedPct(power, poles, 'IE2')) * ie1ToIe2LossRatio(power, poles));
   }
   const table = power >= IEC_LARGE_TABLE_MIN_KW ? TABLE_28 : TABLE_27;
-  const coefficients = table[ieClass]?.[poles];
-  if (!coefficients) throw new CalcInputError('efficiencyClass', `has no coefficients for ${poles} poles`);
-  return polynomial(coefficients, power);
+  // Tables 27 and 28 hold IE2–IE4 for every pole number; poles and class were checked by the caller.
+  return polynomial(table[ieClass]![poles]!, power);
 }
 
 /** NEMA hp ratings of [3] and their standard kW equivalents. */

@@ -175,6 +175,19 @@ describe('assess: bad input', () => {
     expect(() => assess({ ...fan, loadFactor: 1.2, dutyProfile: [{ fraction: 1.2, hours: 100 }] }, site)).toThrow('"motor.dutyProfile.0.fraction" gives a shaft load above 125 % of rated');
   });
 
+  it('names the field for the remaining rules', () => {
+    expect(() => assess({ ...conveyor, rewinds: 1.5 }, site)).toThrow('"motor.rewinds" must be a whole number from 0 to 10');
+    expect(() => assess({ ...conveyor, nameplateEfficiencyPct: 120 }, site)).toThrow('"motor.nameplateEfficiencyPct" must be between 1 and 99.9');
+    expect(() => assess({ ...conveyor, powerFactor: 0 }, site)).toThrow('"motor.powerFactor" must be between 0.05 and 1');
+    expect(() => assess({ ...fan, dutyProfile: [{ fraction: 2, hours: 10 }] }, site)).toThrow('"motor.dutyProfile.0.fraction" must be between 0 and 1.25');
+    expect(() => assess({ ...fan, dutyProfile: [{ fraction: 1, hours: -10 }] }, site)).toThrow('"motor.dutyProfile.0.hours" must be between 0 and 8760');
+    expect(() => assess({ ...fan, loadFactor: 2 }, site)).toThrow('"motor.loadFactor" must be between 0 and 1.25');
+    expect(() => assess(conveyor, { ...site, voltageV: undefined })).toThrow('"motor.voltageV" is required unless site.voltageV is given');
+    expect(() => assess(conveyor, { ...site, voltageV: -400 })).toThrow('"site.voltageV" must be positive');
+    expect(() => assess({ ...conveyor, frequencyHz: 55 as 50 }, site)).toThrow('"motor.frequencyHz" must be 50 or 60');
+    expect(() => assess({ ...conveyor, hoursPerYear: undefined }, { ...site, defaultHoursPerYear: 9999 })).toThrow('"site.defaultHoursPerYear" must be between 0 and 8760');
+  });
+
   it('derives the poles from the speed when they are missing', () => {
     expect(assess({ ...conveyor, poles: undefined, speedRpm: 1460 }, site).motor.poles).toBe(4);
     expect(() => assess({ ...conveyor, poles: undefined, speedRpm: 3100 }, site)).toThrow('"motor.speedRpm" matches no 2-, 4-, 6- or 8-pole induction motor at 50 Hz');

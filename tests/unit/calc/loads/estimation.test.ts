@@ -45,3 +45,12 @@ describe('load estimation (US DOE motor-load fact sheet methods)', () => {
     expect(() => loadFromCurrent(10, 25, undefined, undefined, 25)).toThrow('"noLoadCurrentA" must be between');
   });
 });
+
+describe('load estimation: remaining input rules', () => {
+  it('names each field', () => {
+    expect(() => loadFromSlip(1470, 1450, 0, 50)).toThrow('"poles" must be positive');
+    expect(() => loadFromSlip(1470, 1450, 4, 0)).toThrow('"frequencyHz" must be positive');
+    expect(() => loadFromSlip(1470, 1450, 4, 50, 0, 400)).toThrow('"measuredVoltageV" must be positive');
+    expect(() => loadFromCurrent(10, 0)).toThrow('"ratedCurrentA" must be positive');
+  });
+});

@@ -63,3 +63,10 @@ describe('affinity laws and speed control', () => {
     expect(() => affinityPowerKw(10, 0, 10)).toThrow('"fromSpeedRpm" must be between');
   });
 });
+
+describe('affinity law input rules', () => {
+  it('names each field', () => {
+    expect(() => affinityPowerKw(-1, 1000, 900)).toThrow('"powerKw" must be between 0 and');
+    expect(() => affinityPowerKw(1, 1000, -900)).toThrow('"toSpeedRpm" must be between 0 and');
+  });
+});
