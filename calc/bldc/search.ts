@@ -101,6 +101,9 @@ export type BldcResult = Partial<Omit<BldcDesign, 'feasible' | 'limitingConstrai
 export const SPLIT_RATIOS = [0.45, 0.5, 0.55, 0.6, 0.65, 0.7, 0.75];
 /** Current-density fractions of the target tried (the stack follows) [-]; plus the frame's full stack. */
 export const CURRENT_DENSITY_FRACTIONS = [1, 0.8, 0.6];
+/** Coarser grid for the nearest-feasible searches [-]. */
+export const NEAREST_SPLIT_RATIOS = [0.55, 0.65, 0.75];
+export const NEAREST_CURRENT_DENSITY_FRACTIONS = [1];
 /** Most slots enumerated [-]. */
 export const MAX_SLOTS = 72;
 /** Most poles enumerated [-]. */
@@ -387,11 +390,17 @@ function findNearestFeasible(spec: BldcSpec, analyses: WindingAnalysis[], limiti
       tries.push({ field: 'magnet', value: grade.name, description: `magnet grade ${grade.name} (${grade.maxTemperatureC} °C class)`, spec: { ...spec, magnet: grade } });
     }
   }
+  // Interleave longer stacks with larger frames (the frame list runs on until one fits).
   let frame: FrameLimits | undefined = spec.frame;
-  for (const factor of [1.25, 1.5, 2]) {
-    const maxStackLengthMm = spec.frame.maxStackLengthMm * factor;
-    tries.push({ field: 'maxStackLengthMm', value: Math.round(maxStackLengthMm), description: `a stack up to ${Math.round(maxStackLengthMm)} mm (×${factor})`, spec: { ...spec, frame: { ...spec.frame, maxStackLengthMm } } });
+  const factors = [1.25, 1.5, 2, 3];
+  for (let step = 0; step < 10; step += 1) {
+    const factor = factors[step];
+    if (factor !== undefined) {
+      const maxStackLengthMm = spec.frame.maxStackLengthMm * factor;
+      tries.push({ field: 'maxStackLengthMm', value: Math.round(maxStackLengthMm), description: `a stack up to ${Math.round(maxStackLengthMm)} mm (×${factor})`, spec: { ...spec, frame: { ...spec.frame, maxStackLengthMm } } });
+    }
     if (spec.frame.system === 'free') {
+      if (factor === undefined) break;
       const maxStatorOuterDiameterMm = spec.frame.maxStatorOuterDiameterMm * (1 + (factor - 1) / 2);
       tries.push({ field: 'maxStatorOuterDiameterMm', value: Math.round(maxStatorOuterDiameterMm), description: `a stator outer diameter up to ${Math.round(maxStatorOuterDiameterMm)} mm`, spec: { ...spec, frame: { ...spec.frame, maxStatorOuterDiameterMm } } });
     } else {
@@ -400,7 +409,7 @@ function findNearestFeasible(spec: BldcSpec, analyses: WindingAnalysis[], limiti
     }
   }
   for (const attempt of tries) {
-    const outcome = runSearch(attempt.spec, analyses, [0.5, 0.6, 0.7, 0.75], [1, 0.7]);
+    const outcome = runSearch(attempt.spec, analyses, NEAREST_SPLIT_RATIOS, NEAREST_CURRENT_DENSITY_FRACTIONS);
     const best = rank(outcome.designs)[0];
     if (best?.design.feasible) {
       return { field: attempt.field, value: attempt.value, description: attempt.description, design: summary(best.design, `feasible with ${attempt.description}`) };
