@@ -8,6 +8,7 @@ import { runEfficiencyClassCommand } from './efficiency/command.js';
 import { runLineCurrentCommand } from './electrical/command.js';
 import { runEconomicsCommand } from './economics/command.js';
 import { runAssessCommand } from './assess/command.js';
+import { runSizeBldcCommand, runSweepCommand, runWindingCommand } from './bldc/commands.js';
 
 export interface CalcCommand {
   /** One line for `calc/README.md` and the unknown-command message. */
@@ -36,6 +37,18 @@ export const commands: Record<string, CalcCommand> = {
   assess: {
     summary: 'one motor against every retrofit option: energy, cost, CO2, line current, payback, NPV, IRR, recommendation',
     run: (input) => runAssessCommand(input),
+  },
+  winding: {
+    summary: 'three-phase winding by the star of slots: layout, winding factors of every harmonic, balance',
+    run: (input) => runWindingCommand(input),
+  },
+  'size-bldc': {
+    summary: 'analytic surface-PM BLDC that fits a frame: dimensions, winding, magnet, losses, efficiency, masses, feasibility',
+    run: (input) => runSizeBldcCommand(input),
+  },
+  sweep: {
+    summary: 'vary one input of a size-bldc request over a range and tabulate the design figures',
+    run: (input) => runSweepCommand(input),
   },
   'efficiency-map': {
     summary: 'motor + drive efficiency of a sized BLDC over a speed × torque grid, with the torque–speed envelope',
