@@ -42,7 +42,7 @@ describe('SignInPage', () => {
     await wrapper.get('[data-testid="signin-password"]').setValue('wrong-password');
     await wrapper.get('form').trigger('submit');
     await flushPromises();
-    expect(wrapper.get('[data-testid="signin-error"]').text()).toContain('do not match an active account');
+    expect(wrapper.get('[data-testid="signin-error"]').text()).toContain('The e-mail or the password is wrong.');
   });
 
   it('shows the server’s retry advice when sign-in is rate limited', async () => {
