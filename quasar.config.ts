@@ -33,6 +33,8 @@ export default defineConfig(() => ({
     },
     extendViteConf(viteConf) {
       viteConf.publicDir = fromRoot('./app/public');
+      // Never inline fonts or images as data: URLs: the content security policy allows only the app's own files.
+      viteConf.build = { ...viteConf.build, assetsInlineLimit: 0 };
       viteConf.server = {
         ...viteConf.server,
         watch: { ignored: ['**/.data/**', '**/.artifacts/**', '**/server/**', '**/tests/**'] },

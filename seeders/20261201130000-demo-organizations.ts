@@ -11,7 +11,7 @@ import { DEMO_PASSWORD, generateMotors, kestrelSites, larkspurSite, organization
 const SLUGS = organizations.map((organization) => organization.slug);
 
 async function insertReturningIds(queryInterface: QueryInterface, table: string, rows: Record<string, unknown>[]): Promise<number[]> {
-  const inserted = (await queryInterface.bulkInsert(table, rows, { returning: ['id'] })) as unknown as Array<{ id: number }>;
+  const inserted = (await queryInterface.bulkInsert(table, rows, { returning: ['id'] } as object)) as unknown as Array<{ id: number }>;
   return inserted.map((row) => row.id);
 }
 

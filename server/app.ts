@@ -2,6 +2,7 @@
  * The Express application: security headers, sessions in PostgreSQL, passport, CSRF, the API
  * routes, the OpenAPI document, the built client, and the one error handler.
  */
+import { randomBytes } from 'node:crypto';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import connectPgSimple from 'connect-pg-simple';
@@ -49,6 +50,12 @@ export function createApp(options: AppOptions) {
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
 
+  // A fresh nonce per response lets the charting library add its own <style> elements (it takes
+  // the nonce from the page) while every other inline style stays forbidden.
+  app.use((_req, res, next) => {
+    res.locals.cspNonce = randomBytes(16).toString('base64');
+    next();
+  });
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -56,7 +63,7 @@ export function createApp(options: AppOptions) {
         directives: {
           defaultSrc: ["'self'"],
           scriptSrc: ["'self'"],
-          styleSrc: ["'self'"],
+          styleSrc: ["'self'", (_req, res) => `'nonce-${(res as Response).locals.cspNonce as string}'`],
           fontSrc: ["'self'"],
           imgSrc: ["'self'", 'data:', 'blob:'],
           connectSrc: ["'self'"],
@@ -126,11 +133,11 @@ export function createApp(options: AppOptions) {
 
   if (existsSync(join(config.clientDir, 'index.html'))) {
     app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }));
-    const indexHtml = readFileSync(join(config.clientDir, 'index.html'));
-    // Client-side routes (history mode): any other GET gets the app's page.
+    const indexHtml = readFileSync(join(config.clientDir, 'index.html'), 'utf8');
+    // Client-side routes (history mode): any other GET gets the app's page, with this response's nonce.
     app.get('/{*splat}', (_req, res) => {
-      res.type('html').setHeader('Cache-Control', 'no-cache');
-      res.send(indexHtml);
+      res.type('html').setHeader('Cache-Control', 'no-store');
+      res.send(indexHtml.replace('<head>', `<head><meta name="csp-nonce" content="${res.locals.cspNonce as string}">`));
     });
   }
 

@@ -4,12 +4,12 @@
  * organisation filter. A row of another organisation is reported as not found (404), never as
  * forbidden, so ids reveal nothing.
  */
-import type { Attributes, CountOptions, CreationAttributes, FindOptions, Model, ModelStatic, Transaction, WhereOptions } from 'sequelize';
+import type { Attributes, CountOptions, CreationAttributes, FindAndCountOptions, FindOptions, Model, ModelStatic, Transaction, WhereOptions } from 'sequelize';
 import type { SessionUser } from '../shared/auth.js';
 import { AuditLog } from '../models/index.js';
 import { notFound } from './errors.js';
 
-type Owned = Model & { organizationId: number };
+type Owned = Model & { organizationId: number | null };
 
 export class Tenant {
   readonly organizationId: number;
@@ -20,14 +20,14 @@ export class Tenant {
 
   /** A where clause limited to this organisation. */
   where<M extends Owned>(extra: WhereOptions<Attributes<M>> = {}): WhereOptions<Attributes<M>> {
-    return { ...(extra as object), organizationId: this.organizationId } as WhereOptions<Attributes<M>>;
+    return { ...(extra as object), organizationId: this.organizationId } as unknown as WhereOptions<Attributes<M>>;
   }
 
   findAll<M extends Owned>(model: ModelStatic<M>, options: FindOptions<Attributes<M>> = {}): Promise<M[]> {
     return model.findAll({ ...options, where: this.where<M>(options.where as WhereOptions<Attributes<M>>) });
   }
 
-  findAndCountAll<M extends Owned>(model: ModelStatic<M>, options: FindOptions<Attributes<M>> = {}) {
+  findAndCountAll<M extends Owned>(model: ModelStatic<M>, options: FindAndCountOptions<Attributes<M>> = {}) {
     return model.findAndCountAll({ ...options, where: this.where<M>(options.where as WhereOptions<Attributes<M>>) });
   }
 
@@ -42,13 +42,13 @@ export class Tenant {
     what: string,
     options: Omit<FindOptions<Attributes<M>>, 'where'> = {},
   ): Promise<M> {
-    const row = await model.findOne({ ...options, where: this.where<M>({ id } as WhereOptions<Attributes<M>>) });
+    const row = await model.findOne({ ...options, where: this.where<M>({ id } as unknown as WhereOptions<Attributes<M>>) });
     if (!row) throw notFound(what);
     return row;
   }
 
   create<M extends Owned>(model: ModelStatic<M>, values: Omit<CreationAttributes<M>, 'organizationId'>, transaction?: Transaction): Promise<M> {
-    return model.create({ ...values, organizationId: this.organizationId } as CreationAttributes<M>, transaction ? { transaction } : {});
+    return model.create({ ...values, organizationId: this.organizationId } as unknown as CreationAttributes<M>, transaction ? { transaction } : {});
   }
 
   /** Records who did what to which row, in the caller's transaction. */

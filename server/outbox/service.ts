@@ -32,11 +32,10 @@ export async function listOutbox(tenant: Tenant, query: z.infer<typeof outboxLis
     const pattern = `%${query.q.replace(/[%_\\]/g, '\\$&')}%`;
     Object.assign(where, { [Op.or]: [{ subject: { [Op.iLike]: pattern } }, { textBody: { [Op.iLike]: pattern } }] });
   }
-  const order = orderFrom(query.sort).map((entry) => (Array.isArray(entry) && entry[0] === 'receivedAt' ? ['receivedAt', entry[1]] : entry));
   const { rows, count } = await tenant.findAndCountAll(OutboxMessage, {
     where,
     include: [withAttachments],
-    order: order as never,
+    order: orderFrom(query.sort),
     distinct: true,
     ...pageWindow(query.page, query.pageSize),
   });

@@ -3,6 +3,7 @@ import { fn, col, Op, type WhereOptions } from 'sequelize';
 import { Motor, Site } from '../models/index.js';
 import { database } from '../lib/database.js';
 import { staleVersion } from '../lib/errors.js';
+import { definedOnly } from '../lib/objects.js';
 import { orderFrom, pageWindow } from '../lib/lists.js';
 import type { Tenant } from '../lib/tenant.js';
 import type { ListResult } from '../shared/common.js';
@@ -98,7 +99,7 @@ export async function updateSite(tenant: Tenant, id: number, input: z.infer<type
   const { version, archived, ...fields } = input;
   await database().transaction(async (transaction) => {
     const site = await tenant.findById(Site, id, 'Site', { transaction });
-    const changes: Record<string, unknown> = { ...fields };
+    const changes: Record<string, unknown> = definedOnly(fields);
     if (fields.energyPricePerKwh !== undefined) changes.energyPricePerKwh = String(fields.energyPricePerKwh);
     if (fields.demandChargePerKwMonth !== undefined) changes.demandChargePerKwMonth = String(fields.demandChargePerKwMonth);
     if (archived !== undefined) changes.archivedAt = archived ? (site.archivedAt ?? new Date()) : null;

@@ -5,6 +5,7 @@ import { Organization, User } from '../models/index.js';
 import { newInvitationToken } from '../auth/service.js';
 import { database } from '../lib/database.js';
 import { conflict, staleVersion } from '../lib/errors.js';
+import { definedOnly } from '../lib/objects.js';
 import { orderFrom, pageWindow } from '../lib/lists.js';
 import type { Mailer } from '../lib/mail.js';
 import type { Tenant } from '../lib/tenant.js';
@@ -107,7 +108,7 @@ export async function updateUser(tenant: Tenant, id: number, input: z.infer<type
   }
   await database().transaction(async (transaction) => {
     await tenant.findById(User, id, 'User', { transaction });
-    const [updated] = await User.update({ ...changes, version: version + 1 }, { where: tenant.where<User>({ id, version }), transaction });
+    const [updated] = await User.update({ ...definedOnly(changes), version: version + 1 }, { where: tenant.where<User>({ id, version }), transaction });
     if (updated === 0) throw staleVersion('This user');
     if (changes.status === 'disabled') {
       // Sign the disabled user out everywhere: their sessions are deleted with them.

@@ -18,7 +18,7 @@ describe('signing in', () => {
     expect(await page.getByTestId('overview-total-sites').innerText()).toContain('3');
     const motors = Number((await page.getByTestId('overview-total-motors').innerText()).replace(/\D/g, ''));
     expect(motors).toBeGreaterThanOrEqual(140);
-    expect(await page.getByTestId('user-menu').innerText()).toContain('Kestrel Valley Foods');
+    expect(await page.locator('header').innerText()).toContain('Kestrel Valley Foods');
     // Team is an admin's screen only.
     expect(await page.getByTestId('nav-team').count()).toBe(role === 'admin' ? 1 : 0);
     const path = await screenshot(page, `overview-${role}`);

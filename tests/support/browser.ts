@@ -50,10 +50,15 @@ export function baseUrl(): string {
   return inject('baseUrl');
 }
 
+/** The native input of a Quasar field, whether the test id sits on the input or on its wrapper. */
+export function field(page: Page, testId: string) {
+  return page.locator(`input[data-testid="${testId}"], [data-testid="${testId}"] input, textarea[data-testid="${testId}"]`).first();
+}
+
 export async function signInThroughPage(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.goto(`${baseUrl()}/`);
-  await page.getByTestId('signin-email').locator('input').fill(email);
-  await page.getByTestId('signin-password').locator('input').fill(password);
+  await field(page, 'signin-email').fill(email);
+  await field(page, 'signin-password').fill(password);
   await page.getByTestId('signin-submit').click();
 }
 
