@@ -2,7 +2,7 @@
  * calc/bldc — analytic design of a surface-PM brushless motor that fits an induction motor's frame.
  * Public entry points; see calc/README.md (section "BLDC design") for the method and sources.
  */
-export { sizeBldc, resolveSpec, slotPoleCombinations, equivalentPoles, SPLIT_RATIOS, CURRENT_DENSITY_FRACTIONS, type BldcInput, type BldcResult, type DesignSummary, type NearestFeasible } from './search.js';
+export { sizeBldc, resolveSpec, slotPoleCombinations, equivalentPoles, splitRatiosFor, SPLIT_RATIOS, CURRENT_DENSITY_FRACTIONS, type BldcInput, type BldcResult, type DesignSummary, type NearestFeasible } from './search.js';
 export { sweep, SWEEPABLE_PARAMETERS, MAX_SWEEP_STEPS, type SweepRow, type SweepParameter } from './sweep.js';
 export { windingLayout, type WindingLayout, type Coil, type SlotSide, type WindingHarmonic, type PhaseName } from './winding.js';
 export { MAGNET_GRADES, LAMINATION_STEELS, DEFAULT_MAGNET, DEFAULT_STEEL, resolveMagnet, resolveSteel, magnetAtTemperature, type MagnetGrade, type LaminationSteel } from './materials.js';

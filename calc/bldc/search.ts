@@ -99,6 +99,16 @@ export type BldcResult = Partial<Omit<BldcDesign, 'feasible' | 'limitingConstrai
 
 /** Split ratios D/D_o tried by the search [-] (SPM range, common practice). */
 export const SPLIT_RATIOS = [0.45, 0.5, 0.55, 0.6, 0.65, 0.7, 0.75];
+
+/**
+ * The split ratios worth trying for p pole pairs: a window of five that rises with the pole count,
+ * 0.45–0.65 for p = 1 up to 0.55–0.75 for p ≥ 3 (thinner yokes leave room for a larger bore; common
+ * practice, no source).
+ */
+export function splitRatiosFor(polePairs: number): number[] {
+  const low = Math.min(0.45 + 0.05 * (polePairs - 1), 0.55) - 1e-9;
+  return SPLIT_RATIOS.filter((s) => s >= low && s <= low + 0.2 + 2e-9);
+}
 /** Current-density fractions of the target tried (the stack follows) [-]; plus the frame's full stack. */
 export const CURRENT_DENSITY_FRACTIONS = [1, 0.8, 0.6];
 /** Coarser grid for the nearest-feasible searches [-]. */
@@ -248,7 +258,7 @@ interface SearchOutcome {
   bestRejected?: RejectedCandidate;
 }
 
-function runSearch(spec: BldcSpec, analyses: WindingAnalysis[], splits: readonly number[], fractions: readonly number[]): SearchOutcome {
+function runSearch(spec: BldcSpec, analyses: WindingAnalysis[], splits: readonly number[] | undefined, fractions: readonly number[]): SearchOutcome {
   const designs: SearchOutcome['designs'] = [];
   let bestRejected: RejectedCandidate | undefined;
   let evaluated = 0;
@@ -258,7 +268,8 @@ function runSearch(spec: BldcSpec, analyses: WindingAnalysis[], splits: readonly
     { kind: 'length' as const, lengthM: spec.frame.maxStackLengthMm / 1000 },
   ];
   for (const analysis of analyses) {
-    for (const splitRatio of splits) {
+    const polePairs = analysis.layout.poles / 2;
+    for (const splitRatio of splits ?? splitRatiosFor(polePairs)) {
       const prepared = magneticDesign(spec, analysis, splitRatio, Do);
       for (const stack of stackChoices) {
         const candidate: Candidate = { splitRatio, outerDiameterM: Do, stack };
@@ -311,7 +322,7 @@ export function sizeBldc(input: BldcInput): BldcResult {
   const analyses = balancedAnalyses(candidateCombinations(spec.speedRpm, input));
   if (analyses.length === 0) throw new CalcInputError(input.slots !== undefined ? 'slots' : 'poles', 'gives no balanced winding with a winding factor of 0.85 or more');
   const combinations = analyses;
-  const outcome = runSearch(spec, analyses, SPLIT_RATIOS, CURRENT_DENSITY_FRACTIONS);
+  const outcome = runSearch(spec, analyses, undefined, CURRENT_DENSITY_FRACTIONS);
   const ranked = rank(outcome.designs);
   const feasibleCount = ranked.filter((r) => r.design.feasible).length;
   const assumptions = describeAssumptions(spec, input);
