@@ -3,15 +3,19 @@
 /** Series colours: the brand teal and copper first, then muted companions. */
 export const CHART_COLOURS = ['#1f5f5b', '#c9822b', '#5b4b8a', '#6f8f3a', '#2f6690', '#8c5a44'];
 
-export const CHART_DEFAULTS = {
-  chart: {
-    fontFamily: '"Open Sans", system-ui, sans-serif',
-    foreColor: '#3c4a48',
-    toolbar: { show: false },
-    animations: { enabled: false },
-  },
-  colors: CHART_COLOURS,
-  grid: { borderColor: '#e3ddd2', strokeDashArray: 3 },
-  dataLabels: { enabled: false },
-  tooltip: { theme: 'light' },
-};
+/** ApexCharts' global options; `nonce` marks the <style> elements it adds as allowed by the CSP. */
+export function chartDefaults(nonce?: string) {
+  return {
+    chart: {
+      fontFamily: '"Open Sans", system-ui, sans-serif',
+      foreColor: '#3c4a48',
+      toolbar: { show: false },
+      animations: { enabled: false },
+      ...(nonce ? { nonce } : {}),
+    },
+    colors: CHART_COLOURS,
+    grid: { borderColor: '#e3ddd2', strokeDashArray: 3 },
+    dataLabels: { enabled: false },
+    tooltip: { theme: 'light' },
+  };
+}
