@@ -5,7 +5,7 @@
  */
 import type { PartLoadCurve } from '../contracts.js';
 import { CalcInputError, requireInRange } from '../errors.js';
-import { iecClassEfficiency, unknownClassEfficiency, POLES, type ClassEfficiency, type Poles } from '../efficiency/classes.js';
+import { memoIecClassEfficiency, memoUnknownClassEfficiency, unknownClassEfficiency, POLES, type ClassEfficiency, type Poles } from '../efficiency/classes.js';
 import {
   INDUCTION_CONSTANT_LOSS_SHARE,
   INDUCTION_MAGNETISING_REACTIVE_SHARE,
@@ -31,11 +31,13 @@ import { powerFactorFromNameplate } from '../electrical/line-current.js';
 import {
   capitalRecoveryFactor,
   discountedPaybackYears,
+  escalatingSeriesFactor,
+  fillSavingsCashFlows,
   internalRateOfReturn,
-  lifeCycleCost,
   netPresentValue,
-  savingsCashFlows,
+  presentValueWithFactor,
   simplePaybackYears,
+  type EscalatingSeriesFactor,
 } from '../economics/cash-flows.js';
 import { roundMoney } from '../economics/money.js';
 import { annualDemandCost, effectiveEnergyPrice } from '../economics/tariff.js';
@@ -147,6 +149,15 @@ export interface AssessResult {
   assumptions: Assumption[];
 }
 
+/** How much detail `assess` returns. */
+export interface AssessOptions {
+  /**
+   * 'full' (default): every option lists its per-bin figures (`bins`). 'totals': `bins` is left
+   * empty, for screening many motors; every other figure is the same as with 'full'.
+   */
+  detail?: 'full' | 'totals' | undefined;
+}
+
 /** Internal per-bin operating point, shared by the options with the same flow control. */
 interface OperatingPoint {
   fraction: number;
@@ -155,6 +166,11 @@ interface OperatingPoint {
   shaftKw: number;
   speedFraction: number;
   torqueFraction: number;
+  /** The BinResult figures that do not depend on the option, rounded once per point, not per option. */
+  runHoursRounded: number;
+  shaftKwRounded: number;
+  loadFractionRounded: number;
+  speedFractionRounded: number;
 }
 
 /** How one option turns shaft power into input power. */
@@ -177,6 +193,47 @@ interface OptionModel {
 const SCALES = [1, 10, 100, 1000, 10000] as const;
 const round = (value: number, decimals: 0 | 1 | 2 | 3 | 4): number => Math.round(value * SCALES[decimals]) / SCALES[decimals];
 const roundOrNull = (value: number | null, decimals: 0 | 1 | 2 | 3 | 4): number | null => (value === null ? null : round(value, decimals));
+// The same rounding with the scale as a literal: the per-bin loop calls these about 400 times a
+// motor, and a constant operand spares the table load (results are bit for bit those of `round`).
+const round1 = (value: number): number => Math.round(value * 10) / 10;
+const round2 = (value: number): number => Math.round(value * 100) / 100;
+const round3 = (value: number): number => Math.round(value * 1000) / 1000;
+const round4 = (value: number): number => Math.round(value * 10000) / 10000;
+const round2OrNull = (value: number | null): number | null => (value === null ? null : round2(value));
+const round4OrNull = (value: number | null): number | null => (value === null ? null : round4(value));
+
+/**
+ * `value.toFixed(0)`, exactly (same string for every number), without the general fixed-point
+ * conversion that made the recommendation's reason one of the costlier lines of `assess`: an
+ * integer prints as itself; otherwise the integer part is rounded half up on the magnitude, which
+ * is what toFixed does (ECMA-262 Number.prototype.toFixed: the larger n on a tie, sign put back).
+ */
+function toFixed0(value: number): string {
+  const magnitude = Math.abs(value);
+  if (!(magnitude < 9007199254740992)) return value.toFixed(0); // 2^53: above it toFixed prints exact digits, String the shortest
+  if (Number.isInteger(value)) return String(value);
+  const whole = Math.floor(magnitude); // below 2^53 the fraction magnitude − whole is exact
+  const rounded = magnitude - whole >= 0.5 ? whole + 1 : whole;
+  return value < 0 ? `-${rounded}` : String(rounded);
+}
+
+/** Error field of each price-book item, built once rather than per option. */
+const ITEM_FIELDS: Readonly<Record<OptionFamily | 'vsd', string>> = {
+  keep: 'priceBook.items.keep',
+  rewind: 'priceBook.items.rewind',
+  ie3: 'priceBook.items.ie3',
+  ie4: 'priceBook.items.ie4',
+  ie5: 'priceBook.items.ie5',
+  bldc: 'priceBook.items.bldc',
+  vsd: 'priceBook.items.vsd',
+};
+
+/** Σ hours of the bins [h/a], added in order (as a reduce from 0 would). */
+function sumHours(bins: readonly { hours: number }[]): number {
+  let sum = 0;
+  for (let index = 0; index < bins.length; index += 1) sum += bins[index]!.hours;
+  return sum;
+}
 
 function resolvePoles(motor: MotorInput, frequencyHz: number): { poles: Poles; derived: boolean } {
   if (motor.poles !== undefined) {
@@ -212,7 +269,7 @@ function optionCapex(option: OptionDefinition, book: PriceBook, ratedPowerKw: nu
   let gross = 0;
   if (option.family === 'rewind') gross += itemCost(book.items.rewind, ratedPowerKw, 'priceBook.items.rewind');
   if (option.family === 'ie3' || option.family === 'ie4' || option.family === 'ie5' || option.family === 'bldc') {
-    gross += itemCost(book.items[option.family], ratedPowerKw, `priceBook.items.${option.family}`);
+    gross += itemCost(book.items[option.family], ratedPowerKw, ITEM_FIELDS[option.family]);
     gross += installationCost(book.motorInstallation, ratedPowerKw);
   }
   if (option.speedControl) {
@@ -263,22 +320,38 @@ function operatingPoints(
   for (let index = 0; index < bins.length; index += 1) {
     const bin = bins[index]!;
     if (!isFlowLoad) {
-      points[index] = { fraction: bin.fraction, hours: bin.hours, runHours: bin.hours, shaftKw: bin.fraction * ratedPowerKw, speedFraction: 1, torqueFraction: bin.fraction };
+      points[index] = pointWithRounding(bin.fraction, bin.hours, bin.hours, bin.fraction * ratedPowerKw, 1, bin.fraction, ratedPowerKw);
       continue;
     }
     const point = flowOperatingPoint(method, bin.fraction, staticHead);
     const load = designLoad * point.powerFraction;
     if (load > 1.25) throw new CalcInputError(`motor.dutyProfile.${index}.fraction`, 'gives a shaft load above 125 % of rated');
-    points[index] = {
-      fraction: bin.fraction,
-      hours: bin.hours,
-      runHours: bin.hours * point.runFraction,
-      shaftKw: load * ratedPowerKw,
-      speedFraction: point.speedFraction,
-      torqueFraction: point.speedFraction > 0 ? load / point.speedFraction : 0,
-    };
+    points[index] = pointWithRounding(
+      bin.fraction,
+      bin.hours,
+      bin.hours * point.runFraction,
+      load * ratedPowerKw,
+      point.speedFraction,
+      point.speedFraction > 0 ? load / point.speedFraction : 0,
+      ratedPowerKw,
+    );
   }
   return points;
+}
+
+function pointWithRounding(fraction: number, hours: number, runHours: number, shaftKw: number, speedFraction: number, torqueFraction: number, ratedPowerKw: number): OperatingPoint {
+  return {
+    fraction,
+    hours,
+    runHours,
+    shaftKw,
+    speedFraction,
+    torqueFraction,
+    runHoursRounded: round2(runHours),
+    shaftKwRounded: round4(shaftKw),
+    loadFractionRounded: round4(shaftKw / ratedPowerKw),
+    speedFractionRounded: round4(speedFraction),
+  };
 }
 
 /** An option's physics before money: per-bin results and the totals. */
@@ -296,9 +369,9 @@ const SQRT3 = Math.sqrt(3);
  * Input power, power factor and current of one option at every bin:
  * P_in = P_shaft + P_loss,motor(s, t) [+ P_loss,drive(c)], I = P_in/(√3·V·PF).
  */
-function evaluateOption(model: OptionModel, points: readonly OperatingPoint[], context: MotorContext): OptionPhysics {
+function evaluateOption(model: OptionModel, points: readonly OperatingPoint[], context: MotorContext, withBins: boolean): OptionPhysics {
   const { ratedPowerKw, voltageV } = context;
-  const bins = new Array<BinResult>(points.length);
+  const bins = withBins ? new Array<BinResult>(points.length) : null;
   let annualKwh = 0;
   let peakKw = 0;
   let peakCurrent = 0;
@@ -339,21 +412,49 @@ function evaluateOption(model: OptionModel, points: readonly OperatingPoint[], c
         peakKva = kva;
       }
     }
+    if (bins === null) continue;
     bins[index] = {
       fraction: point.fraction,
       hours: point.hours,
-      runHours: round(point.runHours, 2),
-      shaftKw: round(point.shaftKw, 4),
-      loadFraction: round(point.shaftKw / ratedPowerKw, 4),
-      speedFraction: round(point.speedFraction, 4),
-      inputKw: round(inputKw, 4),
-      efficiency: inputKw > 0 ? round(point.shaftKw / inputKw, 4) : 0,
-      powerFactor: round(powerFactor, 3),
-      currentA: round(currentA, 2),
-      kva: round(kva, 3),
+      runHours: point.runHoursRounded,
+      shaftKw: point.shaftKwRounded,
+      loadFraction: point.loadFractionRounded,
+      speedFraction: point.speedFractionRounded,
+      inputKw: round4(inputKw),
+      efficiency: inputKw > 0 ? round4(point.shaftKw / inputKw) : 0,
+      powerFactor: round3(powerFactor),
+      currentA: round2(currentA),
+      kva: round3(kva),
     };
   }
-  return { bins, annualKwh, peakKw, peakCurrent, peakKva };
+  return { bins: bins ?? [], annualKwh, peakKw, peakCurrent, peakKva };
+}
+
+/** Capital recovery and present-worth factors of one life at one rate and escalation. */
+interface LifeFactors {
+  capitalRecovery: number;
+  series: EscalatingSeriesFactor;
+}
+
+/**
+ * Factors by life [a] for the last (rate, escalation) seen: options share three or four lives and
+ * most calls share the default rates, so the two powers are computed once, not twice per option.
+ * Module scratch like the IRR's slope: a pure memo, the values are those of the functions it calls.
+ */
+const lifeMemo = { rate: Number.NaN, escalation: Number.NaN, byYears: [] as (LifeFactors | undefined)[] };
+
+function lifeFactors(years: number, rate: number, escalation: number): LifeFactors {
+  if (!Object.is(rate, lifeMemo.rate) || !Object.is(escalation, lifeMemo.escalation)) {
+    lifeMemo.rate = rate;
+    lifeMemo.escalation = escalation;
+    lifeMemo.byYears = [];
+  }
+  let factors = lifeMemo.byYears[years];
+  if (factors === undefined) {
+    factors = { capitalRecovery: capitalRecoveryFactor(rate, years), series: escalatingSeriesFactor(years, rate, escalation) };
+    lifeMemo.byYears[years] = factors;
+  }
+  return factors;
 }
 
 /** What the money side of every option shares. */
@@ -383,34 +484,36 @@ function optionResult(option: OptionDefinition, model: OptionModel, physics: Opt
   const savingsCost = economy.baselineCost - annualCost;
   const capex = optionCapex(option, economy.book, economy.ratedPowerKw, economy.hasDriveToday);
   const lifeYears = optionLife(option, economy.lives);
-  const flows = savingsCashFlows(capex, savingsCost, lifeYears, economy.escalation);
+  // A reused buffer: every figure below reads it before the next option overwrites it.
+  const flows = fillSavingsCashFlows(capex, savingsCost, lifeYears, economy.escalation);
   const isBaseline = option.code === 'keep';
-  const lcc = lifeCycleCost(capex, annualCost, lifeYears, economy.discountRate, economy.escalation);
+  const life = lifeFactors(lifeYears, economy.discountRate, economy.escalation);
+  const lcc = capex + presentValueWithFactor(annualCost, life.series); // lifeCycleCost, with the power computed once per life
   return {
     code: option.code,
     label: option.label,
-    ratedEfficiencyPct: round(model.ratedEfficiency * 100, 2),
+    ratedEfficiencyPct: round2(model.ratedEfficiency * 100),
     lifeYears,
-    annualKwh: round(annualKwh, 1),
-    peakKw: round(peakKw, 3),
+    annualKwh: round1(annualKwh),
+    peakKw: round3(peakKw),
     energyCost: roundMoney(energyCost),
     demandCost: roundMoney(demandCost),
     annualCost: roundMoney(annualCost),
-    annualCo2Kg: round(annualKwh * economy.co2Factor, 1),
-    savingsKwh: round(savingsKwh, 1),
+    annualCo2Kg: round1(annualKwh * economy.co2Factor),
+    savingsKwh: round1(savingsKwh),
     savingsCost: roundMoney(savingsCost),
-    co2SavedKg: round(savingsKwh * economy.co2Factor, 1),
+    co2SavedKg: round1(savingsKwh * economy.co2Factor),
     capex: roundMoney(capex),
-    simplePaybackYears: isBaseline ? null : roundOrNull(simplePaybackYears(capex, savingsCost), 2),
-    discountedPaybackYears: isBaseline ? null : roundOrNull(discountedPaybackYears(economy.discountRate, flows), 2),
+    simplePaybackYears: isBaseline ? null : round2OrNull(simplePaybackYears(capex, savingsCost)),
+    discountedPaybackYears: isBaseline ? null : round2OrNull(discountedPaybackYears(economy.discountRate, flows)),
     npv: roundMoney(netPresentValue(economy.discountRate, flows)),
-    irr: isBaseline || !(savingsCost > 0) ? null : roundOrNull(internalRateOfReturn(flows), 4),
+    irr: isBaseline || !(savingsCost > 0) ? null : round4OrNull(internalRateOfReturn(flows)),
     lifeCycleCost: roundMoney(lcc),
-    equivalentAnnualCost: roundMoney(lcc * capitalRecoveryFactor(economy.discountRate, lifeYears)),
-    lineCurrentA: round(peakCurrent, 2),
-    kva: round(peakKva, 3),
-    lineCurrentReductionA: round(economy.baselineCurrent - peakCurrent, 2),
-    kvaReduction: round(economy.baselineKva - peakKva, 3),
+    equivalentAnnualCost: roundMoney(lcc * life.capitalRecovery),
+    lineCurrentA: round2(peakCurrent),
+    kva: round3(peakKva),
+    lineCurrentReductionA: round2(economy.baselineCurrent - peakCurrent),
+    kvaReduction: round3(economy.baselineKva - peakKva),
     bins: physics.bins,
     assumptions:
       model.driveClass && option.family !== 'bldc'
@@ -449,6 +552,8 @@ const DEFAULT_ENTRIES = Object.freeze({
  *   defaultHoursPerYear [h/a]
  * @param priceBook optional; each part missing falls back to DEFAULT_PRICE_BOOK
  * @param assumptions optional overrides of the defaults in calc/assess/defaults.ts
+ * @param options optional; `detail: 'totals'` leaves every option's `bins` empty (screening), else
+ *   they are filled (AssessOptions)
  * @returns baseline ('keep'), every applicable option (OptionResult), the recommendation (highest
  *   NPV above zero, else 'keep') with its reason, and the assumptions used. Plain JSON data.
  *
@@ -457,7 +562,8 @@ const DEFAULT_ENTRIES = Object.freeze({
  * option's life with escalating savings. Sources: see each domain function.
  * @throws CalcInputError naming the field for input that breaks a rule.
  */
-export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBookInput, assumptions?: AssumptionsInput): AssessResult {
+export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBookInput, assumptions?: AssumptionsInput, options?: AssessOptions): AssessResult {
+  const withBins = options?.detail !== 'totals';
   const used: Assumption[] = [];
   const ratedPowerKw = motor.ratedPowerKw;
   requireInRange('motor.ratedPowerKw', ratedPowerKw, 0.12, 1000);
@@ -477,7 +583,8 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
   // Assumption values.
   const discountRate = (assumptions?.discountRatePct ?? DEFAULT_DISCOUNT_RATE_PCT) / 100;
   const escalation = (assumptions?.energyEscalationPct ?? DEFAULT_ENERGY_ESCALATION_PCT) / 100;
-  const lives = { ...DEFAULT_OPTION_LIFE_YEARS, ...assumptions?.lifeYears } as Record<OptionFamily | 'vsd', number>;
+  // Read only below, so the defaults need no copy when no life is given.
+  const lives = (assumptions?.lifeYears === undefined ? DEFAULT_OPTION_LIFE_YEARS : { ...DEFAULT_OPTION_LIFE_YEARS, ...assumptions.lifeYears }) as Record<OptionFamily | 'vsd', number>;
   const rewindPenalty = assumptions?.rewindPenaltyPctPoints ?? REWIND_PENALTY_PCT_POINTS;
   const newDriveClass = assumptions?.newDriveClass ?? DEFAULT_NEW_DRIVE_CLASS;
   used.push(
@@ -515,13 +622,14 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
     original = { efficiencyPct: motor.nameplateEfficiencyPct, source: 'nameplate efficiency (wins over the class value)' };
   } else if (efficiencyClass === 'unknown') {
     if (motor.yearInstalled !== undefined && motor.yearInstalled >= CLASS_REGIME_START_YEAR) {
-      const ie2 = iecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE2');
+      const ie2 = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE2');
       original = { efficiencyPct: ie2.efficiencyPct, source: `unknown class, installed ${motor.yearInstalled} ≥ ${CLASS_REGIME_START_YEAR}: IE2 minimum assumed; ${ie2.source}` };
     } else {
-      original = unknownClassEfficiency(ratedPowerKw, poles, frequencyHz, assumptions?.unknownClassLossFactor);
+      const lossFactor = assumptions?.unknownClassLossFactor;
+      original = lossFactor === undefined ? memoUnknownClassEfficiency(ratedPowerKw, poles, frequencyHz) : unknownClassEfficiency(ratedPowerKw, poles, frequencyHz, lossFactor);
     }
   } else if (efficiencyClass === 'IE1' || efficiencyClass === 'IE2' || efficiencyClass === 'IE3' || efficiencyClass === 'IE4' || efficiencyClass === 'IE5') {
-    original = iecClassEfficiency(ratedPowerKw, poles, frequencyHz, efficiencyClass);
+    original = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, efficiencyClass);
   } else {
     throw new CalcInputError('motor.efficiencyClass', 'must be one of IE1, IE2, IE3, IE4, IE5, unknown');
   }
@@ -554,11 +662,13 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
   let bins: { fraction: number; hours: number }[];
   if (motor.dutyProfile !== undefined && motor.dutyProfile.length > 0) {
     let total = 0;
-    motor.dutyProfile.forEach((bin, index) => {
-      requireInRange(`motor.dutyProfile.${index}.fraction`, bin.fraction, 0, 1.25);
-      requireInRange(`motor.dutyProfile.${index}.hours`, bin.hours, 0, MAX_HOURS_PER_YEAR);
+    for (let index = 0; index < motor.dutyProfile.length; index += 1) {
+      const bin = motor.dutyProfile[index]!;
+      // The same checks as requireInRange, with the field name built only when one fails.
+      if (!(bin.fraction >= 0 && bin.fraction <= 1.25)) requireInRange(`motor.dutyProfile.${index}.fraction`, bin.fraction, 0, 1.25);
+      if (!(bin.hours >= 0 && bin.hours <= MAX_HOURS_PER_YEAR)) requireInRange(`motor.dutyProfile.${index}.hours`, bin.hours, 0, MAX_HOURS_PER_YEAR);
       total += bin.hours;
-    });
+    }
     if (total > MAX_HOURS_PER_YEAR) throw new CalcInputError('motor.dutyProfile', `hours must add up to ${MAX_HOURS_PER_YEAR} or less`);
     bins = motor.dutyProfile;
     used.push({ what: 'duty profile', value: `${bins.length} bins, ${total} h/a`, source: isFlowLoad ? 'given; fractions of design flow' : 'given; fractions of rated load' });
@@ -601,9 +711,9 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
 
   const context: MotorContext = { ratedPowerKw, voltageV, ratedPowerFactor, sinPhi: Math.sqrt(1 - ratedPowerFactor * ratedPowerFactor) };
   // Rated efficiency and its source for each induction option, computed once.
-  const ie3 = iecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE3');
-  const ie4 = iecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE4');
-  const ie5 = iecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE5');
+  const ie3 = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE3');
+  const ie4 = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE4');
+  const ie5 = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE5');
   const inductionRatings: Record<Exclude<OptionFamily, 'bldc'>, { efficiency: number; source: string }> = {
     keep: { efficiency: baseEfficiency, source: rewinds > 0 ? `${original.source}, less ${rewinds} rewind(s)` : original.source },
     rewind: { efficiency: rewoundEfficiency(baseEfficiency, 1, rewindPenalty), source: `today's efficiency less one more rewind (${rewindPenalty} points)` },
@@ -652,7 +762,7 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
       const rating = inductionRatings[option.family];
       model = inductionModel(context, rating.efficiency, rating.source, option.speedControl ? newDriveClass : todayDrive);
     }
-    evaluated.push({ option, model, physics: evaluateOption(model, option.speedControl ? speedPoints! : todayPoints, context) });
+    evaluated.push({ option, model, physics: evaluateOption(model, option.speedControl ? speedPoints! : todayPoints, context, withBins) });
   }
   const baselinePhysics = evaluated[0]!.physics;
   const economy: EconomicContext = {
@@ -686,7 +796,7 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
   const recommended = best
     ? {
         code: best.code,
-        reason: `highest NPV, ${best.npv.toFixed(0)}${unit} over ${best.lifeYears} years at ${round(discountRate * 100, 2)} %/a; saves ${best.savingsCost.toFixed(0)}${unit} and ${best.savingsKwh.toFixed(0)} kWh a year, simple payback ${best.simplePaybackYears ?? '–'} years`,
+        reason: `highest NPV, ${toFixed0(best.npv)}${unit} over ${best.lifeYears} years at ${round2(discountRate * 100)} %/a; saves ${toFixed0(best.savingsCost)}${unit} and ${toFixed0(best.savingsKwh)} kWh a year, simple payback ${best.simplePaybackYears ?? '–'} years`,
       }
     : { code: 'keep' as OptionCode, reason: `no option has a positive NPV at ${round(discountRate * 100, 2)} %/a; keep the motor and review at its next failure` };
 
@@ -702,7 +812,7 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
       controlMethod,
       efficiencyPct: round(baseEfficiency * 100, 2),
       powerFactor: round(ratedPowerFactor, 3),
-      annualHours: bins.reduce((sum, bin) => sum + bin.hours, 0),
+      annualHours: sumHours(bins),
     },
     baseline: results[0]!,
     options: results,

@@ -43,6 +43,35 @@ export function savingsCashFlows(capex: number, annualSavings: number, years: nu
   return flows;
 }
 
+/** Scratch buffers by length for `fillSavingsCashFlows` (module scratch, reused, never returned to a caller's result). */
+const scratchFlows: Float64Array[] = [];
+
+/**
+ * The cash flows of `savingsCashFlows` written into a reused buffer instead of a new array, for loops
+ * that assess many options: same values, bit for bit; the buffer is overwritten by the next call.
+ *
+ * @param capex [currency], ≥ 0; @param annualSavings first-year saving [currency/a]
+ * @param years N [a], integer 1–100; @param escalation g [-]
+ * @returns a Float64Array of length N + 1 holding [−capex, S, S·(1+g), …] [currency], valid until the next call.
+ */
+export function fillSavingsCashFlows(capex: number, annualSavings: number, years: number, escalation: number): Float64Array {
+  requireNonNegative('capex', capex);
+  if (!Number.isInteger(years) || years < 1 || years > 100) throw new CalcInputError('years', 'must be a whole number from 1 to 100');
+  requireInRange('escalation', escalation, -0.5, 1);
+  let flows = scratchFlows[years];
+  if (flows === undefined) {
+    flows = new Float64Array(years + 1);
+    scratchFlows[years] = flows;
+  }
+  flows[0] = -capex;
+  let amount = annualSavings;
+  for (let t = 1; t <= years; t += 1) {
+    flows[t] = amount;
+    amount *= 1 + escalation;
+  }
+  return flows;
+}
+
 /**
  * Net present value.
  *
@@ -51,13 +80,13 @@ export function savingsCashFlows(capex: number, annualSavings: number, years: nu
  * @returns NPV = Σ_{t=0..N} CF_t/(1+i)^t [currency] (CF_0 not discounted; [1] Ch. 5; same
  *   convention as numpy-financial's npv).
  */
-export function netPresentValue(rate: number, cashFlows: readonly number[]): number {
+export function netPresentValue(rate: number, cashFlows: ArrayLike<number>): number {
   if (!(rate > -1)) throw new CalcInputError('discountRate', 'must be above -100 %');
   const factor = 1 / (1 + rate);
   let discount = 1;
   let sum = 0;
-  for (const flow of cashFlows) {
-    sum += flow * discount;
+  for (let t = 0; t < cashFlows.length; t += 1) {
+    sum += cashFlows[t]! * discount;
     discount *= factor;
   }
   return sum;
@@ -67,7 +96,7 @@ export function netPresentValue(rate: number, cashFlows: readonly number[]): num
 let lastSlope = 0;
 
 /** NPV at one rate; its derivative dNPV/di is left in `lastSlope`, for Newton steps. */
-function npvWithSlope(rate: number, cashFlows: readonly number[]): number {
+function npvWithSlope(rate: number, cashFlows: ArrayLike<number>): number {
   const factor = 1 / (1 + rate);
   let discount = 1;
   let value = 0;
@@ -92,7 +121,7 @@ function npvWithSlope(rate: number, cashFlows: readonly number[]): number {
  *   Newton steps kept inside a shrinking bracket (safeguarded Newton), tolerance 1e-12.
  * References: [1] Ch. 5; checked against [2].
  */
-export function internalRateOfReturn(cashFlows: readonly number[]): number | null {
+export function internalRateOfReturn(cashFlows: ArrayLike<number>): number | null {
   const tolerance = 1e-12 * Math.max(1, Math.abs(cashFlows[0] ?? 1));
   // Fast path: plain Newton from the first-year return; NPV of a conventional investment is convex
   // and decreasing in the rate, so this converges in a few steps. Anything odd falls to the bracket.
@@ -111,7 +140,7 @@ export function internalRateOfReturn(cashFlows: readonly number[]): number | nul
 }
 
 /** Safeguarded Newton inside a bracket of NPV sign change; null when there is none. */
-function bracketedRate(cashFlows: readonly number[], tolerance: number): number | null {
+function bracketedRate(cashFlows: ArrayLike<number>, tolerance: number): number | null {
   let low = IRR_LOWER;
   let lowValue = npvWithSlope(low, cashFlows);
   let high = 0.1;
@@ -164,7 +193,7 @@ export function simplePaybackYears(capex: number, annualSavings: number): number
  * @returns years [a], interpolated linearly within the year it happens; null if not within N years.
  * References: [1] Ch. 5 (discounted payback period).
  */
-export function discountedPaybackYears(rate: number, cashFlows: readonly number[]): number | null {
+export function discountedPaybackYears(rate: number, cashFlows: ArrayLike<number>): number | null {
   const factor = 1 / (1 + rate);
   let cumulative = cashFlows[0] ?? 0;
   if (cumulative >= 0) return 0;
@@ -199,8 +228,43 @@ export function capitalRecoveryFactor(rate: number, years: number): number {
  *   (geometric-gradient series present worth, [1] Ch. 4).
  */
 export function presentValueOfEscalatingSeries(firstAmount: number, years: number, rate: number, escalation: number): number {
-  if (Math.abs(rate - escalation) < 1e-12) return (years * firstAmount) / (1 + rate);
-  return (firstAmount * (1 - ((1 + escalation) / (1 + rate)) ** years)) / (rate - escalation);
+  return presentValueWithFactor(firstAmount, escalatingSeriesFactor(years, rate, escalation));
+}
+
+/** The parts of the geometric-gradient present worth that do not depend on the amount. */
+export interface EscalatingSeriesFactor {
+  years: number;
+  rate: number;
+  /** True when i = g (the limit formula applies). */
+  equalRates: boolean;
+  /** 1 − ((1+g)/(1+i))^N [-] (0 when equalRates). */
+  growthTerm: number;
+  /** i − g [-]. */
+  rateGap: number;
+}
+
+/**
+ * Precomputes the power in `presentValueOfEscalatingSeries`, so many amounts over the same life,
+ * rate and escalation share it.
+ *
+ * @param years N [a]; @param rate i [-]; @param escalation g [-]
+ * @returns the factor parts (see EscalatingSeriesFactor). [1] Ch. 4.
+ */
+export function escalatingSeriesFactor(years: number, rate: number, escalation: number): EscalatingSeriesFactor {
+  const equalRates = Math.abs(rate - escalation) < 1e-12;
+  return { years, rate, equalRates, growthTerm: equalRates ? 0 : 1 - ((1 + escalation) / (1 + rate)) ** years, rateGap: rate - escalation };
+}
+
+/**
+ * Present value of an escalating series from a precomputed factor; the same operations, in the same
+ * order, as `presentValueOfEscalatingSeries`, so the result is identical.
+ *
+ * @param firstAmount A [currency/a]; @param factor from `escalatingSeriesFactor`
+ * @returns PV [currency]: A·(1 − ((1+g)/(1+i))^N)/(i − g), or N·A/(1+i) when i = g.
+ */
+export function presentValueWithFactor(firstAmount: number, factor: EscalatingSeriesFactor): number {
+  if (factor.equalRates) return (factor.years * firstAmount) / (1 + factor.rate);
+  return (firstAmount * factor.growthTerm) / factor.rateGap;
 }
 
 /**

@@ -319,3 +319,53 @@ export function unknownClassEfficiency(
     source: `unknown class: IE1 losses × ${lossFactor} (below IE1, common practice); IE1 from ${ie1.source}`,
   };
 }
+
+/** Entries kept by the class-efficiency memo before it starts afresh (bounds its memory). */
+export const CLASS_MEMO_MAX_ENTRIES = 4096;
+
+/** Memo of class values by rating [kW] → slot (poles, frequency, class); "U" slots hold the default unknown class. */
+const classMemo = new Map<number, (ClassEfficiency | undefined)[]>();
+
+const memoSlot = (poles: Poles, frequencyHz: number, ieClass: IeClass | 'unknown'): number =>
+  (poles / 2 - 1) * 12 + (frequencyHz === 60 ? 6 : 0) + (ieClass === 'unknown' ? 5 : Number(ieClass.charCodeAt(2) - 49));
+
+/**
+ * `iecClassEfficiency`, memoised: the same value, shared and frozen, for a repeated (rating, poles,
+ * frequency, class). Fleets use a few standard ratings, so an assessment of many motors computes each
+ * class value once instead of once per motor and option (the source strings and the polynomials were
+ * a visible share of `assess`). Pure: nothing but the memo's hit rate depends on earlier calls.
+ *
+ * @param ratedPowerKw [kW]; @param poles [-]; @param frequencyHz [Hz]; @param ieClass 'IE1'…'IE5'
+ * @returns as `iecClassEfficiency` (frozen: do not mutate). Invalid input throws as it does.
+ */
+export function memoIecClassEfficiency(ratedPowerKw: number, poles: Poles, frequencyHz: number, ieClass: IeClass): ClassEfficiency {
+  return memoised(ratedPowerKw, poles, frequencyHz, ieClass) ?? remember(ratedPowerKw, poles, frequencyHz, ieClass, iecClassEfficiency(ratedPowerKw, poles, frequencyHz, ieClass));
+}
+
+/**
+ * `unknownClassEfficiency` with the default loss factor, memoised like `memoIecClassEfficiency`.
+ *
+ * @param ratedPowerKw [kW]; @param poles [-]; @param frequencyHz [Hz]
+ * @returns as `unknownClassEfficiency(ratedPowerKw, poles, frequencyHz)` (frozen).
+ */
+export function memoUnknownClassEfficiency(ratedPowerKw: number, poles: Poles, frequencyHz: number): ClassEfficiency {
+  return memoised(ratedPowerKw, poles, frequencyHz, 'unknown') ?? remember(ratedPowerKw, poles, frequencyHz, 'unknown', unknownClassEfficiency(ratedPowerKw, poles, frequencyHz));
+}
+
+function memoised(ratedPowerKw: number, poles: Poles, frequencyHz: number, ieClass: IeClass | 'unknown'): ClassEfficiency | undefined {
+  if (frequencyHz !== 50 && frequencyHz !== 60) return undefined;
+  if (poles !== 2 && poles !== 4 && poles !== 6 && poles !== 8) return undefined;
+  return classMemo.get(ratedPowerKw)?.[memoSlot(poles, frequencyHz, ieClass)];
+}
+
+function remember(ratedPowerKw: number, poles: Poles, frequencyHz: number, ieClass: IeClass | 'unknown', value: ClassEfficiency): ClassEfficiency {
+  let slots = classMemo.get(ratedPowerKw);
+  if (slots === undefined) {
+    if (classMemo.size >= CLASS_MEMO_MAX_ENTRIES) classMemo.clear();
+    slots = new Array<ClassEfficiency | undefined>(48);
+    classMemo.set(ratedPowerKw, slots);
+  }
+  const frozen = Object.freeze({ efficiencyPct: value.efficiencyPct, source: value.source });
+  slots[memoSlot(poles, frequencyHz, ieClass)] = frozen;
+  return frozen;
+}
