@@ -11,7 +11,7 @@
  */
 import type { BldcSimulationParams } from '../contracts.js';
 import { CalcInputError, requireNonNegative, requirePositive } from '../errors.js';
-import { loadTorque, type LoadState } from './load.js';
+import { LOAD_QUADRATIC, loadTorque, type LoadState } from './load.js';
 
 /** Width of the back-EMF flat top when the design does not say [electrical degrees]: the ideal trapezoid of [1]. */
 export const DEFAULT_FLAT_TOP_ELECTRICAL_DEG = 120;
@@ -183,9 +183,13 @@ export interface BldcModelConfig {
 
 const TWO_PI = 2 * Math.PI;
 const TWO_THIRDS_PI = (2 * Math.PI) / 3;
+const ONE_THIRD = 1 / 3;
+
+/** Number of leading state entries the derivative reads (currents, speed, angle, DC link) [-]; the energies after them are pure quadratures. */
+export const DYNAMIC_STATE_SIZE = 6;
 
 /**
- * Builds the state derivative of the star-connected BLDC with its inverter legs ([1] Eqs. (1)–(6)).
+ * The state derivative of the star-connected BLDC with its inverter legs ([1] Eqs. (1)–(6)).
  * For the conducting (closed) phases k, with terminal voltages v_k, back-EMFs e_k = k_e·ω·f_k(p·θ):
  *   v_n = Σ_closed (v_k − e_k) / n_closed                      (Σ i = 0 and Σ di/dt = 0)
  *   di_k/dt = (v_k − v_n − R·i_k − e_k) / (L − M)               ([1] Eq. (3))
@@ -195,31 +199,77 @@ const TWO_THIRDS_PI = (2 * Math.PI) / 3;
  * The DC-link voltage is constant, or C·dv/dt = i_rect − i_dc with the six-pulse rectifier current
  * i_rect = max(0, (v_src − v)/R_s). Energies: dE_in/dt = Σ v_k·i_k (= v·i_dc), dE_cu/dt = R·Σ i²,
  * dE_load/dt = T_L·ω, dE_fric/dt = B·ω².
- * @returns f(t [s], x, dx) writing dx and config.aux; no allocation
+ * A class with numeric fields and one method, so that the simulation's inner loop calls it
+ * monomorphically (no closure, no allocation); the constants are copied from the config once.
  */
-export function createBldcDerivative(config: BldcModelConfig): Derivative {
-  const resistance = config.phaseResistanceOhm;
-  const inverseInductance = 1 / config.effectiveInductanceH;
-  const ke = config.backEmfConstantVsPerRad;
-  const polePairs = config.polePairs;
-  const inverseInertia = 1 / config.totalInertiaKgM2;
-  const friction = config.viscousFrictionNmsPerRad;
-  const halfTransition = config.halfTransition;
-  const table = config.shapeTable;
-  const legFactor = config.legFactor;
-  const closed = config.closed;
-  const load = config.load;
-  const rectifier = config.rectifier;
-  const aux = config.aux;
+export class BldcModel {
+  /**
+   * Time of the next evaluation [s] (read by the rectifier only). A field rather than an argument:
+   * V8 boxes a floating-point argument of a call it does not inline, which allocates in the inner loop.
+   */
+  time = 0;
+  private readonly resistance: number;
+  private readonly inverseInductance: number;
+  private readonly ke: number;
+  /** p/(2π): electrical periods per mechanical radian [1/rad]. */
+  private readonly periodsPerRad: number;
+  private readonly inverseInertia: number;
+  private readonly friction: number;
+  /** Trapezoid breakpoints [fraction of the period] and the slope of its transitions, 1/halfTransition [-]. */
+  private readonly corner1: number;
+  private readonly corner2: number;
+  private readonly corner3: number;
+  private readonly corner4: number;
+  private readonly slope: number;
+  private readonly square: boolean;
+  private readonly table: Float64Array | null;
+  private readonly legFactor: Float64Array;
+  private readonly closed: Float64Array;
+  private readonly load: LoadState;
+  private readonly rectifier: BldcModelConfig['rectifier'];
 
-  return (t: number, x: Float64Array, dx: Float64Array): void => {
+  constructor(config: BldcModelConfig) {
+    this.resistance = config.phaseResistanceOhm;
+    this.inverseInductance = 1 / config.effectiveInductanceH;
+    this.ke = config.backEmfConstantVsPerRad;
+    this.periodsPerRad = config.polePairs / TWO_PI;
+    this.inverseInertia = 1 / config.totalInertiaKgM2;
+    this.friction = config.viscousFrictionNmsPerRad;
+    const halfTransition = config.halfTransition;
+    this.square = halfTransition <= 0;
+    this.corner1 = halfTransition;
+    this.corner2 = 0.5 - halfTransition;
+    this.corner3 = 0.5 + halfTransition;
+    this.corner4 = 1 - halfTransition;
+    this.slope = this.square ? 0 : 1 / halfTransition;
+    this.table = config.shapeTable;
+    this.legFactor = config.legFactor;
+    this.closed = config.closed;
+    this.load = config.load;
+    this.rectifier = config.rectifier;
+  }
+
+  /**
+   * Writes dx = f(t, x) and, when `aux` is given, the auxiliary outputs at (t, x), with t = this.time.
+   * Reads only the first DYNAMIC_STATE_SIZE entries of x. No allocation.
+   * @param x state (see the S_ indices)
+   * @param dx derivative, written in full
+   * @param aux auxiliary outputs (AUX_ indices), or null when nobody reads them (RK4 inner stages)
+   */
+  evaluate(x: Float64Array, dx: Float64Array, aux: Float64Array | null): void {
+    const resistance = this.resistance;
+    const inverseInductance = this.inverseInductance;
+    const ke = this.ke;
+    const friction = this.friction;
+    const legFactor = this.legFactor;
+    const closed = this.closed;
     const ia = x[S_CURRENT_A] as number;
     const ib = x[S_CURRENT_B] as number;
     const ic = x[S_CURRENT_C] as number;
     const speed = x[S_SPEED] as number;
     const vdc = x[S_DC_BUS] as number;
 
-    const turns = (polePairs * (x[S_ANGLE] as number)) / TWO_PI;
+    const turns = this.periodsPerRad * (x[S_ANGLE] as number);
     const ua = turns - Math.floor(turns);
     let ub = ua - 1 / 3;
     if (ub < 0) ub += 1;
@@ -228,10 +278,11 @@ export function createBldcDerivative(config: BldcModelConfig): Derivative {
     let fa: number;
     let fb: number;
     let fc: number;
+    const table = this.table;
     if (table === null) {
-      fa = trapezoidShape(ua, halfTransition);
-      fb = trapezoidShape(ub, halfTransition);
-      fc = trapezoidShape(uc, halfTransition);
+      fa = this.trapezoid(ua);
+      fb = this.trapezoid(ub);
+      fc = this.trapezoid(uc);
     } else {
       fa = tableShape(ua, table);
       fb = tableShape(ub, table);
@@ -249,31 +300,44 @@ export function createBldcDerivative(config: BldcModelConfig): Derivative {
     const cc = closed[2] as number;
     const closedCount = ca + cb + cc;
 
-    let neutral: number;
+    let neutral = 0;
     let dia = 0;
     let dib = 0;
     let dic = 0;
     if (closedCount >= 2) {
-      neutral = (ca * (va - ea) + cb * (vb - eb) + cc * (vc - ec)) / closedCount;
+      const sum = ca * (va - ea) + cb * (vb - eb) + cc * (vc - ec);
+      neutral = closedCount === 2 ? 0.5 * sum : sum * ONE_THIRD;
       dia = ca * (va - neutral - resistance * ia - ea) * inverseInductance;
       dib = cb * (vb - neutral - resistance * ib - eb) * inverseInductance;
       dic = cc * (vc - neutral - resistance * ic - ec) * inverseInductance;
-    } else if (closedCount === 1) {
-      // One closed leg carries no current: the neutral sits at its terminal minus its EMF.
-      neutral = ca * (va - ea) + cb * (vb - eb) + cc * (vc - ec);
-    } else {
-      // All legs open: the neutral floats; take mid-bus less the EMF mean (symmetric stray capacitance).
-      neutral = 0.5 * vdc - (ea + eb + ec) / 3;
+    } else if (aux !== null) {
+      // Fewer than two closed legs carry no current; the neutral matters for the outputs only.
+      neutral =
+        closedCount === 1
+          ? // One closed leg: the neutral sits at its terminal minus its EMF.
+            ca * (va - ea) + cb * (vb - eb) + cc * (vc - ec)
+          : // All legs open: the neutral floats; take mid-bus less the EMF mean (symmetric stray capacitance).
+            0.5 * vdc - (ea + eb + ec) / 3;
     }
 
     const torque = ke * (fa * ia + fb * ib + fc * ic);
-    const loadTorqueNm = loadTorque(load, speed, torque - friction * speed);
+    const load = this.load;
+    // loadTorque() of load.ts, inlined for the common cases (a moving shaft).
+    const loadTorqueNm =
+      load.active === 0
+        ? 0
+        : load.kind === LOAD_QUADRATIC
+          ? load.quadraticCoefficient * speed * Math.abs(speed)
+          : speed > 0
+            ? load.torqueNm
+            : loadTorque(load, speed, torque - friction * speed);
     const inputPower = va * ia + vb * ib + vc * ic;
 
     let rectifierCurrent = 0;
     let dvdc = 0;
+    const rectifier = this.rectifier;
     if (rectifier !== null) {
-      const angle = rectifier.angularFrequency * t;
+      const angle = rectifier.angularFrequency * this.time;
       const source =
         rectifier.peakLineV *
         Math.max(Math.abs(Math.sin(angle)), Math.abs(Math.sin(angle - TWO_THIRDS_PI)), Math.abs(Math.sin(angle + TWO_THIRDS_PI)));
@@ -284,7 +348,7 @@ export function createBldcDerivative(config: BldcModelConfig): Derivative {
     dx[S_CURRENT_A] = dia;
     dx[S_CURRENT_B] = dib;
     dx[S_CURRENT_C] = dic;
-    dx[S_SPEED] = (torque - loadTorqueNm - friction * speed) * inverseInertia;
+    dx[S_SPEED] = (torque - loadTorqueNm - friction * speed) * this.inverseInertia;
     dx[S_ANGLE] = speed;
     dx[S_DC_BUS] = dvdc;
     dx[S_ENERGY_IN] = inputPower;
@@ -292,6 +356,7 @@ export function createBldcDerivative(config: BldcModelConfig): Derivative {
     dx[S_ENERGY_LOAD] = loadTorqueNm * speed;
     dx[S_ENERGY_FRICTION] = friction * speed * speed;
 
+    if (aux === null) return;
     aux[AUX_NEUTRAL_V] = neutral;
     aux[AUX_TORQUE] = torque;
     aux[AUX_LOAD_TORQUE] = loadTorqueNm;
@@ -307,6 +372,30 @@ export function createBldcDerivative(config: BldcModelConfig): Derivative {
     aux[AUX_TERMINAL_V + 1] = cb === 1 ? vb : neutral + eb;
     aux[AUX_TERMINAL_V + 2] = cc === 1 ? vc : neutral + ec;
     aux[AUX_RECTIFIER_CURRENT] = rectifierCurrent;
+  }
+
+  /** trapezoidShape(phase, halfTransition) with the breakpoints and slope precomputed (multiplication, not division). */
+  private trapezoid(phase: number): number {
+    if (this.square) return phase < 0.5 ? 1 : -1;
+    if (phase < this.corner1) return phase * this.slope;
+    if (phase <= this.corner2) return 1;
+    if (phase < this.corner3) return (0.5 - phase) * this.slope;
+    if (phase <= this.corner4) return -1;
+    return (phase - 1) * this.slope;
+  }
+}
+
+/**
+ * Builds the state derivative of the star-connected BLDC with its inverter legs as a plain function
+ * (equations at BldcModel; [1] Eqs. (1)–(6)), writing config.aux on every call.
+ * @returns f(t [s], x, dx) writing dx and config.aux; no allocation
+ */
+export function createBldcDerivative(config: BldcModelConfig): Derivative {
+  const model = new BldcModel(config);
+  const aux = config.aux;
+  return (t: number, x: Float64Array, dx: Float64Array): void => {
+    model.time = t;
+    model.evaluate(x, dx, aux);
   };
 }
 

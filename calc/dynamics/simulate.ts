@@ -15,7 +15,7 @@
 import type { BldcSimulationParams } from '../contracts.js';
 import { CalcInputError, requireInRange, requireNonNegative, requirePositive } from '../errors.js';
 import { PiController, defaultGains, rampedReference, type ControllerGains } from './controller.js';
-import { createRk4Workspace, locateEvent, rk4Step, type Rk4Workspace } from './integrator.js';
+import { createRk4Workspace, locateEvent, type Rk4Workspace } from './integrator.js';
 import {
   FIRST_BOUNDARY_RAD,
   LEG_DIODE_HIGH,
@@ -40,6 +40,8 @@ import {
   AUX_SIZE,
   AUX_TERMINAL_V,
   AUX_TORQUE,
+  BldcModel,
+  DYNAMIC_STATE_SIZE,
   S_ANGLE,
   S_CURRENT_A,
   S_DC_BUS,
@@ -49,13 +51,11 @@ import {
   S_ENERGY_LOAD,
   S_SPEED,
   STATE_SIZE,
-  createBldcDerivative,
   effectiveInductance,
   electricalTimeConstant,
   halfTransitionFromFlatTop,
   shapeTableFrom,
   validateSimulationParams,
-  type Derivative,
 } from './model.js';
 import { runToEnd, type ProgressOptions, type SteppedRun } from './progress.js';
 import { DEFAULT_STEADY_WINDOW_FRACTION, SummaryTracker, createSeries, type SimulationSeries, type SimulationSummary } from './summary.js';
@@ -309,10 +309,24 @@ const EVENT_COUNT = 7;
 /** Relative overshoot of a floating phase beyond a rail that clamps it to its diode [-] (numerical tolerance). */
 const RAIL_TOLERANCE = 1e-9;
 
+if (DYNAMIC_STATE_SIZE !== 6 || STATE_SIZE !== 10) throw new Error('stageState and rk4 are written out for a state of 6 + 4 entries');
+
+/**
+ * RK4 stage state, stage = x + h·k, for the entries the derivative reads (written out: a loop over
+ * six typed-array entries costs about twice as much in V8).
+ */
+function stageState(stage: Float64Array, x: Float64Array, k: Float64Array, h: number): void {
+  stage[0] = (x[0] as number) + h * (k[0] as number);
+  stage[1] = (x[1] as number) + h * (k[1] as number);
+  stage[2] = (x[2] as number) + h * (k[2] as number);
+  stage[3] = (x[3] as number) + h * (k[3] as number);
+  stage[4] = (x[4] as number) + h * (k[4] as number);
+  stage[5] = (x[5] as number) + h * (k[5] as number);
+}
+
 /** The stepping engine. Construct with a resolved input; advance in chunks; read the result. */
 class BldcSimulation implements SteppedRun<SimulationResult> {
-  private readonly f: Derivative;
-  private readonly aux = new Float64Array(AUX_SIZE);
+  private readonly model: BldcModel;
   private auxStart = new Float64Array(AUX_SIZE);
   private auxEnd = new Float64Array(AUX_SIZE);
   private x = new Float64Array(STATE_SIZE);
@@ -336,7 +350,12 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
   private readonly series: SimulationSeries;
 
   private t = 0;
+  /** Length of the trial step being taken [s]. */
+  private tau = 0;
   private n = 0;
+  /** Grid steps left until the next recorded point and the next controller sample (counters, not n % m). */
+  private untilRecord: number;
+  private untilControl: number;
   private k1Valid = false;
   private highLeg = 0;
   private lowLeg = 0;
@@ -359,7 +378,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
 
   constructor(private readonly input: ResolvedInput) {
     const params = input.params;
-    this.f = createBldcDerivative({
+    this.model = new BldcModel({
       phaseResistanceOhm: params.phaseResistanceOhm,
       effectiveInductanceH: effectiveInductance(params.phaseInductanceH, params.mutualInductanceH),
       backEmfConstantVsPerRad: params.backEmfConstantVsPerRad,
@@ -372,14 +391,19 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       closed: this.closed,
       load: input.load,
       rectifier: input.rectifier,
-      aux: this.aux,
+      aux: this.auxStart,
     });
-    this.gAt = (tau: number): number => this.trial(tau, this.refineEvent);
+    this.gAt = (tau: number): number => {
+      this.tau = tau;
+      return this.trial(this.refineEvent);
+    };
     this.speedPi = new PiController(input.gains.speedKp, input.gains.speedKi, input.controlPeriodS, 0, input.currentLimitA);
     this.currentPi = new PiController(input.gains.currentKp, input.gains.currentKi, input.controlPeriodS, 0, 1);
     this.tracker = new SummaryTracker(input.windowStartS, input.setSpeedRadS ?? Number.NaN);
     this.series = createSeries(input.capacity);
     this.tolerance = 1e-9 * input.stepS;
+    this.untilRecord = input.recordEvery;
+    this.untilControl = input.controlEvery;
     this.stepPendingTime = input.stepAtTimeS ?? Infinity;
     this.stepPendingSpeed = input.stepAtSpeedRadS ?? Infinity;
 
@@ -450,7 +474,23 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
   private gridStep(): void {
     const tEnd = (this.n + 1) * this.input.stepS;
     const tolerance = this.tolerance;
-    for (let guard = 0; ; guard++) {
+    // Common case first: no time event inside, start values valid, and no state event crossed in the
+    // trial step. It does exactly what the general loop below would do in that case.
+    let plain = this.k1Valid && !this.railHoldAny && this.pwmNextEdge >= tEnd - tolerance && this.stepPendingTime >= tEnd - tolerance;
+    if (plain) {
+      const h = tEnd - this.t;
+      this.tau = h;
+      this.trial(-1);
+      for (let j = 0; j < EVENT_COUNT; j++) {
+        if (this.crossed(j)) {
+          plain = false;
+          break;
+        }
+      }
+      if (plain) this.commit(h);
+      else this.substep(h, true);
+    }
+    for (let guard = 0; !plain; guard++) {
       if (guard > MAX_EVENTS_PER_STEP) {
         throw new CalcInputError('stepS', `is too large: more than ${MAX_EVENTS_PER_STEP} switching events within one step near t = ${this.t.toPrecision(6)} s`);
       }
@@ -461,7 +501,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
         continue;
       }
       const target = timeEvent < tEnd - tolerance ? timeEvent : tEnd;
-      this.substep(target - this.t);
+      this.substep(target - this.t, false);
       if (Math.abs(target - this.t) <= tolerance) this.t = target;
     }
     this.t = tEnd;
@@ -482,17 +522,30 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       x[S_ENERGY_IN] as number,
       x[S_ENERGY_LOAD] as number,
     );
-    if (this.n % this.input.recordEvery === 0 || this.n === this.input.steps) this.record();
-    if (this.n % this.input.controlEvery === 0) this.control();
+    if (--this.untilRecord === 0 || this.n === this.input.steps) {
+      if (this.untilRecord === 0) this.untilRecord = this.input.recordEvery;
+      this.record();
+    }
+    if (--this.untilControl === 0) {
+      this.untilControl = this.input.controlEvery;
+      this.control();
+    }
   }
 
-  /** Advances by at most `h`, stopping at the first state event inside (which it then handles). */
-  private substep(h: number): void {
-    this.ensureStart();
+  /**
+   * Advances by at most `h`, stopping at the first state event inside (which it then handles).
+   * @param h step [s]
+   * @param tried true when trial(h, −1) has just been taken from the valid committed start
+   */
+  private substep(h: number, tried: boolean): void {
+    if (!tried) this.ensureStart();
     let stepLength = h;
     let refined = -1;
     for (let guard = 0; guard < MAX_EVENTS_PER_STEP; guard++) {
-      this.trial(stepLength, -1);
+      if (guard > 0 || !tried) {
+        this.tau = stepLength;
+        this.trial(-1);
+      }
       let earliest = -1;
       let earliestTau = Infinity;
       for (let j = 0; j < EVENT_COUNT; j++) {
@@ -527,14 +580,51 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     throw new CalcInputError('stepS', `is too large: switching events could not be separated near t = ${this.t.toPrecision(6)} s`);
   }
 
-  /** Steps from the committed state by `tau` into xTrial; returns event `j`'s value there (or 0). */
-  private trial(tau: number, j: number): number {
-    rk4Step(this.f, this.t, this.x, this.k1, tau, this.work, this.xTrial);
-    this.f(this.t + tau, this.xTrial, this.kNext);
-    this.auxEnd.set(this.aux);
+  /** Steps from the committed state by the field `tau` into xTrial; returns event `j`'s value there (or 0). */
+  private trial(j: number): number {
+    this.rk4();
     if (j >= 0) return this.eventValue(j, this.xTrial, this.auxEnd);
     this.eventValues(this.xTrial, this.auxEnd, this.g1);
     return 0;
+  }
+
+  /**
+   * Classical RK4 from the committed (t, x, k1) over `tau` into xTrial, then kNext = f(t + τ, xTrial)
+   * with the auxiliary outputs into auxEnd (Hairer, Nørsett & Wanner 1993, Table II.1.2; the same
+   * arithmetic as rk4Step). The inner stages fill only the entries the derivative reads (the energy
+   * integrals are quadratures) and skip the auxiliary outputs. The step τ is the field `tau` (no
+   * floating-point argument, which V8 would box).
+   */
+  private rk4(): void {
+    const tau = this.tau;
+    const model = this.model;
+    const t = this.t;
+    const x = this.x;
+    const k1 = this.k1;
+    const { k2, k3, k4, stage } = this.work;
+    const out = this.xTrial;
+    const half = 0.5 * tau;
+    stageState(stage, x, k1, half);
+    model.time = t + half;
+    model.evaluate(stage, k2, null);
+    stageState(stage, x, k2, half);
+    model.evaluate(stage, k3, null);
+    stageState(stage, x, k3, tau);
+    model.time = t + tau;
+    model.evaluate(stage, k4, null);
+    // x + (h/6)·(k1 + 2k2 + 2k3 + k4), written out (see stageState; a call here would box h/6).
+    const sixth = tau / 6;
+    out[0] = (x[0] as number) + sixth * ((k1[0] as number) + 2 * (k2[0] as number) + 2 * (k3[0] as number) + (k4[0] as number));
+    out[1] = (x[1] as number) + sixth * ((k1[1] as number) + 2 * (k2[1] as number) + 2 * (k3[1] as number) + (k4[1] as number));
+    out[2] = (x[2] as number) + sixth * ((k1[2] as number) + 2 * (k2[2] as number) + 2 * (k3[2] as number) + (k4[2] as number));
+    out[3] = (x[3] as number) + sixth * ((k1[3] as number) + 2 * (k2[3] as number) + 2 * (k3[3] as number) + (k4[3] as number));
+    out[4] = (x[4] as number) + sixth * ((k1[4] as number) + 2 * (k2[4] as number) + 2 * (k3[4] as number) + (k4[4] as number));
+    out[5] = (x[5] as number) + sixth * ((k1[5] as number) + 2 * (k2[5] as number) + 2 * (k3[5] as number) + (k4[5] as number));
+    out[6] = (x[6] as number) + sixth * ((k1[6] as number) + 2 * (k2[6] as number) + 2 * (k3[6] as number) + (k4[6] as number));
+    out[7] = (x[7] as number) + sixth * ((k1[7] as number) + 2 * (k2[7] as number) + 2 * (k3[7] as number) + (k4[7] as number));
+    out[8] = (x[8] as number) + sixth * ((k1[8] as number) + 2 * (k2[8] as number) + 2 * (k3[8] as number) + (k4[8] as number));
+    out[9] = (x[9] as number) + sixth * ((k1[9] as number) + 2 * (k2[9] as number) + 2 * (k3[9] as number) + (k4[9] as number));
+    model.evaluate(out, this.kNext, this.auxEnd);
   }
 
   private crossed(j: number): boolean {
@@ -572,8 +662,8 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
   private ensureStart(): void {
     if (this.k1Valid) return;
     for (let pass = 0; pass < 4 && !this.k1Valid; pass++) {
-      this.f(this.t, this.x, this.k1);
-      this.auxStart.set(this.aux);
+      this.model.time = this.t;
+      this.model.evaluate(this.x, this.k1, this.auxStart);
       this.k1Valid = true;
       const vdc = this.x[S_DC_BUS] as number;
       for (let k = 0; k < 3; k++) {
@@ -651,9 +741,42 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     return this.stepPendingSpeed - (x[S_SPEED] as number);
   }
 
+  /**
+   * All event values at once into `out` (the same values as eventValue, written out without calls:
+   * a double returned from a call V8 does not inline is boxed, and this runs every step).
+   */
   private eventValues(x: Float64Array, aux: Float64Array, out: Float64Array): void {
-    for (let j = 0; j < EVENT_COUNT; j++) out[j] = this.eventValue(j, x, aux);
+    const vdc = x[S_DC_BUS] as number;
+    for (let k = 0; k < 3; k++) {
+      const mode = this.legMode[k];
+      let value = Infinity;
+      if (mode === LEG_DIODE_LOW) value = x[S_CURRENT_A + k] as number;
+      else if (mode === LEG_DIODE_HIGH) value = -(x[S_CURRENT_A + k] as number);
+      else if (mode === LEG_OPEN) {
+        const terminal = aux[AUX_TERMINAL_V + k] as number;
+        const toHigh = vdc - terminal;
+        value = toHigh < terminal ? toHigh : terminal;
+      }
+      out[k] = value;
+    }
+    const theta = x[S_ANGLE] as number;
+    const fromPrev = theta - this.thetaPrev;
+    const toNext = this.thetaNext - theta;
+    out[EVENT_HALL] = fromPrev < toNext ? fromPrev : toNext;
+    if (!this.input.hysteresis || !Number.isFinite(this.currentRef)) out[EVENT_HYSTERESIS] = Infinity;
+    else {
+      const ia = Math.abs(x[S_CURRENT_A] as number);
+      const ib = Math.abs(x[S_CURRENT_A + 1] as number);
+      const ic = Math.abs(x[S_CURRENT_A + 2] as number);
+      const measured = ia > ib ? (ia > ic ? ia : ic) : ib > ic ? ib : ic;
+      const half = 0.5 * this.input.bandA;
+      out[EVENT_HYSTERESIS] = this.hysteresisOn ? this.currentRef + half - measured : measured - (this.currentRef - half);
+    }
+    const speed = x[S_SPEED] as number;
+    out[EVENT_STANDSTILL] = this.input.load.kind === LOAD_CONSTANT && this.input.load.active === 1 ? speed : Infinity;
+    out[EVENT_LOAD_STEP] = this.stepPendingSpeed - speed;
   }
+
 
   /** Applies every event marked in `due` (crossed in the last committed step, or due now when atStart). */
   private handleEvents(atStart: boolean): void {
