@@ -18,7 +18,8 @@ export default defineConfig(() => ({
     target: { browser: ['es2022', 'firefox115', 'chrome115', 'safari14'], node: 'node20' },
     typescript: { strict: true, vueShim: true },
     vueRouterMode: 'history',
-    distDir: 'dist/spa',
+    // STATORLINE_DIST lets parallel builds (and their servers) use folders of their own.
+    distDir: process.env.STATORLINE_DIST ?? 'dist/spa',
     alias: {
       src: fromRoot('./app'),
       components: fromRoot('./app/components'),

@@ -1,7 +1,7 @@
 /** Builds the client (quasar build) when dist/spa is missing or older than anything it is built from. */
 import { spawnSync } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
-import { join } from 'node:path';
+import { join, relative } from 'node:path';
 import { projectRoot } from './config.js';
 import { logger } from './logger.js';
 
@@ -21,6 +21,7 @@ export function buildClientIfStale(clientDir: string): void {
   logger.info('building the client (quasar build)…');
   const build = spawnSync(join(projectRoot, 'node_modules/.bin/quasar'), ['build'], {
     cwd: projectRoot,
+    env: { ...process.env, STATORLINE_DIST: relative(projectRoot, clientDir) },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   if (build.status !== 0) throw new Error('The client build failed (see above).');

@@ -30,6 +30,8 @@ const environmentSchema = z.object({
   /** Public address used in e-mailed links. */
   PUBLIC_URL: z.string().url().optional(),
   LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),
+  /** Built client to serve, relative to the project (same variable as quasar.config.ts). */
+  STATORLINE_DIST: z.string().default('dist/spa'),
 });
 
 export type Config = ReturnType<typeof loadConfig>;
@@ -58,6 +60,6 @@ export function loadConfig(environment: NodeJS.ProcessEnv = process.env) {
     uploadDir: env.UPLOAD_DIR ?? `${env.DATA_DIR}/uploads`,
     publicUrl: env.PUBLIC_URL ?? `http://${env.HOST}:${env.PORT}`,
     logLevel: env.LOG_LEVEL,
-    clientDir: `${projectRoot}dist/spa`,
+    clientDir: `${projectRoot}${env.STATORLINE_DIST}`,
   };
 }
