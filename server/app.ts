@@ -16,6 +16,7 @@ import { ConnectionError } from 'sequelize';
 import { authRoutes } from './auth/routes.js';
 import { loadSessionUser } from './auth/session-user.js';
 import { healthRoutes } from './health/routes.js';
+import { intakeRoutes } from './intake/routes.js';
 import { projectRoot, type Config } from './lib/config.js';
 import { verifyCsrf } from './lib/csrf.js';
 import { AppError, tooManyAttempts } from './lib/errors.js';
@@ -23,6 +24,7 @@ import { logger } from './lib/logger.js';
 import type { Mailer } from './lib/mail.js';
 import { buildOpenApiDocument } from './lib/openapi.js';
 import { mountRoutes, type RouteSpec } from './lib/routing.js';
+import { motorRoutes } from './motors/routes.js';
 import { outboxRoutes } from './outbox/routes.js';
 import { overviewRoutes } from './overview/routes.js';
 import type { SessionUser } from './shared/auth.js';
@@ -41,7 +43,7 @@ const SESSION_HOURS = 12;
 const packageVersion = (JSON.parse(readFileSync(join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;
 
 export function allRoutes(mailer: Mailer, publicUrl: string): RouteSpec[] {
-  return [...healthRoutes, ...authRoutes, ...overviewRoutes, ...siteRoutes, ...userRoutes(mailer, publicUrl), ...outboxRoutes];
+  return [...healthRoutes, ...authRoutes, ...overviewRoutes, ...siteRoutes, ...userRoutes(mailer, publicUrl), ...outboxRoutes, ...motorRoutes, ...intakeRoutes];
 }
 
 export function createApp(options: AppOptions) {

@@ -9,13 +9,24 @@ export class ImportBatch extends Model<InferAttributes<ImportBatch>, InferCreati
   declare userId: number | null;
   declare fileName: string;
   declare status: CreationOptional<(typeof IMPORT_STATUSES)[number]>;
-  declare mapping: CreationOptional<Record<string, string>>;
+  declare mapping: CreationOptional<Record<string, string | null>>;
   declare totalRows: CreationOptional<number>;
   declare validRows: CreationOptional<number>;
   declare invalidRows: CreationOptional<number>;
   declare createdCount: CreationOptional<number>;
   declare updatedCount: CreationOptional<number>;
   declare committedAt: CreationOptional<Date | null>;
+  // Intake columns (migration 20261201140200).
+  declare headers: CreationOptional<string[]>;
+  declare headerRow: CreationOptional<number>;
+  declare sheetName: CreationOptional<string>;
+  declare fileKey: CreationOptional<string | null>;
+  declare fileSizeBytes: CreationOptional<number>;
+  declare warningRows: CreationOptional<number>;
+  declare duplicates: CreationOptional<{ inFile: Array<{ tag: string; rows: number[] }>; inRegister: Array<{ tag: string; row: number; motorId: number }> }>;
+  declare progress: CreationOptional<number>;
+  declare failure: CreationOptional<string | null>;
+  declare undoneAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -35,6 +46,16 @@ export class ImportBatch extends Model<InferAttributes<ImportBatch>, InferCreati
         createdCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         updatedCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         committedAt: { type: DataTypes.DATE, allowNull: true },
+        headers: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        headerRow: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+        sheetName: { type: DataTypes.STRING(100), allowNull: false, defaultValue: '' },
+        fileKey: { type: DataTypes.STRING(100), allowNull: true },
+        fileSizeBytes: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        warningRows: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        duplicates: { type: DataTypes.JSONB, allowNull: false, defaultValue: { inFile: [], inRegister: [] } },
+        progress: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+        failure: { type: DataTypes.TEXT, allowNull: true },
+        undoneAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -1,0 +1,119 @@
+/**
+ * The spreadsheet parser, run in a worker thread (server/intake/parse.ts starts it with a heap limit
+ * and a wall-clock timeout). The npm build of xlsx has published advisories for crafted files
+ * (prototype pollution, ReDoS): here a hostile file can at worst pollute this worker's own objects
+ * or exhaust its own limits; the server receives only plain arrays of strings and numbers.
+ *
+ * Plain JavaScript on purpose: a worker cannot inherit tsx's loader under Node 20 (`execArgv` with
+ * `--import tsx` is refused in workers), and a .mjs file needs no loader at all, so the same file runs
+ * under tsx, vitest and a compiled build, and the worker starts in milliseconds.
+ *
+ * In: workerData = { bytes: Uint8Array, limits: { maxRows, maxColumns, maxExpandedBytes, maxPartBytes } }.
+ * Out: { ok: true, sheetName, rows: [[rowNumber, cells[]], ...], sheetRows } or { ok: false, code, message }.
+ */
+import { parentPort, workerData } from 'node:worker_threads';
+import * as XLSX from 'xlsx';
+
+/** Declared uncompressed sizes of a ZIP's entries, from its central directory (no inflating). */
+function zipEntrySizes(bytes) {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const minimum = Math.max(0, bytes.length - 65557);
+  for (let offset = bytes.length - 22; offset >= minimum; offset -= 1) {
+    if (view.getUint32(offset, true) !== 0x06054b50) continue;
+    const count = view.getUint16(offset + 10, true);
+    let cursor = view.getUint32(offset + 16, true);
+    const entries = [];
+    for (let index = 0; index < count && cursor + 46 <= bytes.length; index += 1) {
+      if (view.getUint32(cursor, true) !== 0x02014b50) break;
+      const size = view.getUint32(cursor + 24, true);
+      const nameLength = view.getUint16(cursor + 28, true);
+      const extraLength = view.getUint16(cursor + 30, true);
+      const commentLength = view.getUint16(cursor + 32, true);
+      const name = new TextDecoder().decode(bytes.subarray(cursor + 46, cursor + 46 + nameLength));
+      entries.push({ name, size });
+      cursor += 46 + nameLength + extraLength + commentLength;
+    }
+    return entries;
+  }
+  return undefined;
+}
+
+function refuse(code, message) {
+  parentPort.postMessage({ ok: false, code, message });
+}
+
+function run() {
+  const { bytes, limits, kind } = workerData;
+  if (kind === 'zip') {
+    const entries = zipEntrySizes(bytes);
+    if (!entries) return refuse('unreadable', 'The file looks like an .xlsx (ZIP) but its directory cannot be read.');
+    const total = entries.reduce((sum, entry) => sum + entry.size, 0);
+    const largest = entries.reduce((big, entry) => (entry.size > big.size ? entry : big), { name: '', size: 0 });
+    if (total > limits.maxExpandedBytes || largest.size > limits.maxPartBytes) {
+      const what = /sharedStrings/i.test(largest.name) ? 'its shared-strings table' : largest.name || 'its contents';
+      return refuse(
+        'too-large',
+        `The workbook expands to ${Math.round(total / 1048576)} MB (${what}: ${Math.round(largest.size / 1048576)} MB); at most ${Math.round(limits.maxPartBytes / 1048576)} MB per part can be imported. Save only the motor list, or split it.`,
+      );
+    }
+  }
+  let workbook;
+  try {
+    workbook = XLSX.read(bytes, {
+      type: 'buffer',
+      dense: true,
+      raw: true,
+      cellFormula: false,
+      cellHTML: false,
+      cellText: false,
+      cellStyles: false,
+      cellDates: false,
+      bookVBA: false,
+      sheetStubs: false,
+      sheets: 0,
+      // Read at most this many rows: a longer sheet is refused below without holding it all.
+      sheetRows: limits.maxRows + limits.headerRows + 1,
+    });
+  } catch (error) {
+    return refuse('unreadable', `The file cannot be read as a spreadsheet (${String(error && error.message ? error.message : error).slice(0, 200)}).`);
+  }
+  const sheetName = workbook.SheetNames[0];
+  const sheet = sheetName === undefined ? undefined : workbook.Sheets[sheetName];
+  if (!sheet || !sheet['!ref']) return refuse('empty', 'The first sheet of the file is empty.');
+  const full = XLSX.utils.decode_range(sheet['!fullref'] || sheet['!ref']);
+  const range = XLSX.utils.decode_range(sheet['!ref']);
+  const sheetRows = full.e.r - full.s.r + 1;
+  if (sheetRows > limits.maxRows + limits.headerRows) {
+    return refuse('too-many-rows', `The sheet has ${sheetRows} rows; at most ${limits.maxRows} data rows can be imported at once. Split the file.`);
+  }
+  if (range.e.c - range.s.c + 1 > limits.maxColumns) {
+    return refuse('too-many-columns', `The sheet has ${range.e.c - range.s.c + 1} columns; at most ${limits.maxColumns} can be imported.`);
+  }
+  const table = XLSX.utils.sheet_to_json(sheet, { header: 1, raw: true, defval: null, blankrows: true });
+  const rows = [];
+  for (let index = 0; index < table.length; index += 1) {
+    const source = table[index];
+    if (!Array.isArray(source)) continue;
+    const cells = [];
+    let filled = false;
+    for (let column = 0; column < source.length && column < limits.maxColumns; column += 1) {
+      const value = source[column];
+      let cell = null;
+      if (typeof value === 'number') cell = Number.isFinite(value) ? value : null;
+      else if (typeof value === 'string') cell = value.length > 2000 ? value.slice(0, 2000) : value;
+      else if (typeof value === 'boolean') cell = value ? 'TRUE' : 'FALSE';
+      else if (value instanceof Date) cell = value.toISOString();
+      if (typeof cell === 'string' && cell.trim() === '') cell = null;
+      if (cell !== null) filled = true;
+      cells.push(cell);
+    }
+    if (filled) rows.push([range.s.r + index + 1, cells]);
+  }
+  parentPort.postMessage({ ok: true, sheetName: String(sheetName).slice(0, 100), rows, sheetRows });
+}
+
+try {
+  run();
+} catch (error) {
+  refuse('unreadable', `The file cannot be read as a spreadsheet (${String(error && error.message ? error.message : error).slice(0, 200)}).`);
+}

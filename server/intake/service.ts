@@ -1,0 +1,446 @@
+/**
+ * The Intake: spreadsheet imports as batches. Upload → parse (worker) → map → validate every cell →
+ * preview (staging rows in `import_rows`) → commit (one transaction) → undo.
+ *
+ * Commit policy: the rows without errors are committed together in one transaction — all of them or
+ * none (a failure anywhere rolls everything back and the batch reads `failed` with the reason; it can
+ * be committed again). Rows with errors are skipped and stay listed in the batch. Re-importing a tag
+ * of the site updates that motor. The commit runs in the request, in-process, and writes its progress
+ * to the batch row outside its transaction, so a reloaded page polling `GET /api/imports/:id` sees
+ * `committing` and the progress, and the commit carries on if the browser goes away.
+ *
+ * Undo restores every motor the batch updated to its values before the commit (kept in the staging
+ * rows) and removes the motors it created, in one transaction; it is refused (409) when one of those
+ * motors was changed since, or has measurements or files, so undo never loses later work.
+ */
+import { Op, QueryTypes, literal, type Transaction } from 'sequelize';
+import type { z } from 'zod';
+import { database } from '../lib/database.js';
+import { AppError, conflict, notFound } from '../lib/errors.js';
+import { orderFrom, pageWindow } from '../lib/lists.js';
+import type { Tenant } from '../lib/tenant.js';
+import { storeFile, safeFileName } from '../lib/uploads.js';
+import { ImportBatch, ImportMapping, ImportRow, Motor, MotorFile, MotorMeasurement, Site, User } from '../models/index.js';
+import type { ListResult } from '../shared/common.js';
+import {
+  IMPORT_LIMITS,
+  type ImportBatchSummary,
+  type ImportCommitResult,
+  type ImportDetail,
+  type ImportMapping as Mapping,
+  type ImportPreviewResult,
+  type RowIssue,
+  type importDetailQuery,
+  type importListQuery,
+} from '../shared/intake.js';
+import { buildMapping, findHeaderRow, headerKey, headerNames } from './mapping.js';
+import { parseSpreadsheet } from './parse.js';
+import { CHUNK_ROWS, MOTOR_COLUMNS, insertAudits, insertMotors, insertRows, overwriteMotors, recordRowOutcomes } from './store.js';
+import { validateRows, type ParsedRow } from './validate.js';
+
+/**
+ * Test-only hooks (honoured only when NODE_ENV is `test`): `afterCommitChunk` may throw to simulate
+ * a failure in the middle of a commit.
+ */
+export const intakeTestHooks: { afterCommitChunk?: (chunkIndex: number) => void } = {};
+
+const MOTOR_DEFAULTS = { application: 'other', efficiencyClass: 'unknown', rewinds: 0, controlMethod: 'direct-on-line', status: 'in-service' } as const;
+
+async function rememberedMappings(tenant: Tenant): Promise<Map<string, string | null>> {
+  const rows = await tenant.findAll(ImportMapping, { attributes: ['headerKey', 'field', 'organizationId'] });
+  return new Map(rows.map((row) => [row.headerKey, row.field]));
+}
+
+async function rememberMapping(tenant: Tenant, mapping: Mapping, transaction?: Transaction): Promise<void> {
+  const entries = Object.entries(mapping)
+    .map(([header, field]) => ({ headerKey: headerKey(header), field }))
+    .filter((entry) => entry.headerKey !== '' && !/^column [a-z]+$/.test(entry.headerKey));
+  if (entries.length === 0) return;
+  await ImportMapping.bulkCreate(
+    entries.map((entry) => ({ organizationId: tenant.organizationId, headerKey: entry.headerKey, field: entry.field })),
+    { updateOnDuplicate: ['field', 'updatedAt'], conflictAttributes: ['organizationId', 'headerKey'], ...(transaction ? { transaction } : {}) },
+  );
+}
+
+async function existingTags(siteId: number, tags: string[]): Promise<Map<string, number>> {
+  if (tags.length === 0) return new Map();
+  const rows = await database().query<{ id: number; tag: string }>('SELECT id, tag FROM motors WHERE site_id = $1 AND tag = ANY($2::text[])', {
+    bind: [siteId, tags],
+    type: QueryTypes.SELECT,
+  });
+  return new Map(rows.map((row) => [row.tag, row.id]));
+}
+
+function tagsOf(rows: ParsedRow[], headers: string[], mapping: Mapping): string[] {
+  const index = headers.findIndex((header) => mapping[header] === 'tag');
+  if (index < 0) return [];
+  const tags = new Set<string>();
+  for (const row of rows) {
+    const cell = row.cells[index];
+    if (cell !== null && cell !== undefined) tags.add(String(cell).replace(/\s+/g, ' ').trim());
+  }
+  return [...tags];
+}
+
+async function validateBatch(tenant: Tenant, site: Site, headers: string[], mapping: Mapping, rows: ParsedRow[]) {
+  const existing = await existingTags(site.id, tagsOf(rows, headers, mapping));
+  return validateRows(rows, {
+    headers,
+    mapping,
+    site: { voltageV: site.voltageV, frequencyHz: site.frequencyHz },
+    existing,
+    currentYear: new Date().getFullYear(),
+  });
+}
+
+async function requireSite(tenant: Tenant, siteId: number): Promise<Site> {
+  const site = await Site.findOne({ where: tenant.where<Site>({ id: siteId }) });
+  if (!site) throw new AppError('invalid-input', 'siteId: no such site', 400, [{ field: 'siteId', message: 'no such site' }]);
+  return site;
+}
+
+export async function createImport(
+  tenant: Tenant,
+  upload: { buffer: Buffer; originalname: string },
+  input: { siteId: number; mapping?: Mapping | undefined },
+): Promise<ImportPreviewResult> {
+  const site = await requireSite(tenant, input.siteId);
+  const sheet = await parseSpreadsheet(upload.buffer);
+  const headerIndex = findHeaderRow(sheet.rows.map((row) => row.cells));
+  const headerRow = sheet.rows[headerIndex];
+  if (!headerRow) throw new AppError('unreadable-file', 'The sheet has no header row.', 400);
+  const headers = headerNames(headerRow.cells);
+  const dataRows = sheet.rows.slice(headerIndex + 1);
+  if (dataRows.length > IMPORT_LIMITS.maxRows) {
+    throw new AppError('too-large', `The sheet has ${dataRows.length} data rows; at most ${IMPORT_LIMITS.maxRows} can be imported at once. Split the file.`, 413);
+  }
+  if (input.mapping) {
+    const unknown = Object.keys(input.mapping).filter((header) => !headers.includes(header));
+    if (unknown.length > 0) {
+      throw new AppError('invalid-input', `mapping: the file has no column "${unknown[0]}"`, 400, unknown.map((header) => ({ field: 'mapping', message: `no column "${header}"` })));
+    }
+  }
+  const mapping = buildMapping(headers, await rememberedMappings(tenant), input.mapping);
+  const validation = await validateBatch(tenant, site, headers, mapping, dataRows);
+  const stored = await storeFile(upload.buffer);
+  const batchId = await database().transaction(async (transaction) => {
+    const batch = await tenant.create(
+      ImportBatch,
+      {
+        siteId: site.id,
+        userId: tenant.user.id,
+        fileName: safeFileName(upload.originalname, 'import.xlsx'),
+        fileKey: stored.key,
+        fileSizeBytes: stored.sizeBytes,
+        status: 'previewed',
+        mapping,
+        headers,
+        headerRow: headerRow.row,
+        sheetName: sheet.sheetName,
+        totalRows: validation.counts.total,
+        validRows: validation.counts.valid,
+        invalidRows: validation.counts.invalid,
+        warningRows: validation.counts.warnings,
+        duplicates: validation.duplicates,
+      },
+      transaction,
+    );
+    await insertRows(batch.id, validation.rows, transaction);
+    if (input.mapping) await rememberMapping(tenant, mapping, transaction);
+    await tenant.audit('upload', 'import', batch.id, { fileName: batch.fileName, siteId: site.id, rows: validation.counts }, transaction);
+    return batch.id;
+  });
+  return previewResult(tenant, batchId, validation.unmappedRequired);
+}
+
+export async function remapImport(tenant: Tenant, id: number, mapping: Mapping): Promise<ImportPreviewResult> {
+  const batch = await tenant.findById(ImportBatch, id, 'Import');
+  if (batch.status !== 'previewed' && batch.status !== 'failed') {
+    throw conflict('not-editable', `This import is ${batch.status}; only a preview can be re-mapped.`);
+  }
+  const unknown = Object.keys(mapping).filter((header) => !batch.headers.includes(header));
+  if (unknown.length > 0) throw new AppError('invalid-input', `mapping: the file has no column "${unknown[0]}"`, 400);
+  const full = buildMapping(batch.headers, new Map(), mapping);
+  const site = await requireSite(tenant, batch.siteId);
+  const stored = await ImportRow.findAll({ where: { batchId: id }, attributes: ['rowNumber', 'cells'], order: [['rowNumber', 'ASC']], raw: true });
+  const rows: ParsedRow[] = stored.map((row) => ({ row: row.rowNumber, cells: row.cells }));
+  const validation = await validateBatch(tenant, site, batch.headers, full, rows);
+  await database().transaction(async (transaction) => {
+    const [updated] = await ImportBatch.update(
+      {
+        mapping: full,
+        totalRows: validation.counts.total,
+        validRows: validation.counts.valid,
+        invalidRows: validation.counts.invalid,
+        warningRows: validation.counts.warnings,
+        duplicates: validation.duplicates,
+      },
+      { where: tenant.where<ImportBatch>({ id, status: { [Op.in]: ['previewed', 'failed'] } }), transaction },
+    );
+    if (updated === 0) throw conflict('not-editable', 'This import changed meanwhile; reload it.');
+    await ImportRow.destroy({ where: { batchId: id }, transaction });
+    await insertRows(id, validation.rows, transaction);
+    await rememberMapping(tenant, full, transaction);
+    await tenant.audit('remap', 'import', id, { mapping: full }, transaction);
+  });
+  return previewResult(tenant, id, validation.unmappedRequired);
+}
+
+async function summaries(tenant: Tenant, batches: ImportBatch[]): Promise<ImportBatchSummary[]> {
+  const siteIds = [...new Set(batches.map((batch) => batch.siteId))];
+  const userIds = [...new Set(batches.map((batch) => batch.userId).filter((userId): userId is number => userId !== null))];
+  const [sites, users] = await Promise.all([
+    siteIds.length > 0 ? tenant.findAll(Site, { where: { id: { [Op.in]: siteIds } }, attributes: ['id', 'name', 'organizationId'] }) : [],
+    userIds.length > 0 ? User.findAll({ where: { id: { [Op.in]: userIds }, organizationId: tenant.organizationId }, attributes: ['id', 'name'] }) : [],
+  ]);
+  const siteNames = new Map(sites.map((site) => [site.id, site.name]));
+  const userNames = new Map(users.map((user) => [user.id, user.name]));
+  return batches.map((batch) => ({
+    id: batch.id,
+    siteId: batch.siteId,
+    siteName: siteNames.get(batch.siteId) ?? '',
+    fileName: batch.fileName,
+    fileSizeBytes: batch.fileSizeBytes,
+    status: batch.status,
+    progress: batch.progress,
+    userId: batch.userId,
+    userName: batch.userId === null ? null : (userNames.get(batch.userId) ?? null),
+    rows: { total: batch.totalRows, valid: batch.validRows, invalid: batch.invalidRows, warnings: batch.warningRows },
+    createdCount: batch.createdCount,
+    updatedCount: batch.updatedCount,
+    failure: batch.failure,
+    createdAt: batch.createdAt.toISOString(),
+    committedAt: batch.committedAt ? batch.committedAt.toISOString() : null,
+    undoneAt: batch.undoneAt ? batch.undoneAt.toISOString() : null,
+  }));
+}
+
+async function firstIssues(batchId: number, column: 'errors' | 'warnings'): Promise<RowIssue[]> {
+  const rows = await database().query<{ issue: RowIssue }>(
+    `SELECT issue FROM import_rows, jsonb_array_elements(import_rows.${column}) AS issue
+     WHERE batch_id = $1 AND jsonb_array_length(import_rows.${column}) > 0
+     ORDER BY row_number LIMIT $2`,
+    { bind: [batchId, IMPORT_LIMITS.maxIssuesListed], type: QueryTypes.SELECT },
+  );
+  return rows.map((row) => row.issue);
+}
+
+const REQUIRED_FOR_CREATE = ['tag', 'ratedPowerKw'];
+
+async function previewResult(tenant: Tenant, id: number, unmappedRequired?: string[]): Promise<ImportPreviewResult> {
+  const batch = await tenant.findById(ImportBatch, id, 'Import');
+  const [summary] = await summaries(tenant, [batch]);
+  const mappedFields = new Set(Object.values(batch.mapping));
+  const missing =
+    unmappedRequired ??
+    [...REQUIRED_FOR_CREATE.filter((field) => !mappedFields.has(field)), ...(!mappedFields.has('poles') && !mappedFields.has('speedRpm') ? ['poles'] : [])];
+  return {
+    ...(summary as ImportBatchSummary),
+    headers: batch.headers,
+    headerRow: batch.headerRow,
+    sheetName: batch.sheetName,
+    mapping: batch.mapping as Mapping,
+    unmappedRequired: missing,
+    errors: await firstIssues(id, 'errors'),
+    warnings: await firstIssues(id, 'warnings'),
+    duplicates: batch.duplicates,
+  };
+}
+
+export async function getImport(tenant: Tenant, id: number, query: z.infer<typeof importDetailQuery>): Promise<ImportDetail> {
+  const result = await previewResult(tenant, id);
+  const where: Record<string, unknown> = { batchId: id };
+  if (query.filter === 'valid') where.valid = true;
+  if (query.filter === 'invalid') where.valid = false;
+  const warningFilter = query.filter === 'warning' ? { [Op.and]: [literal('jsonb_array_length(warnings) > 0')] } : {};
+  const { rows, count } = await ImportRow.findAndCountAll({
+    where: { ...where, ...warningFilter },
+    order: [['rowNumber', 'ASC']],
+    ...pageWindow(query.page, query.pageSize),
+  });
+  return {
+    ...result,
+    preview: {
+      items: rows.map((row) => ({
+        row: row.rowNumber,
+        action: row.action,
+        motorId: row.motorId,
+        values: row.values,
+        cells: Object.fromEntries(result.headers.map((header, index) => [header, row.cells[index] ?? null])),
+        errors: row.errors,
+        warnings: row.warnings,
+      })),
+      total: count,
+      page: query.page,
+      pageSize: query.pageSize,
+    },
+  };
+}
+
+export async function listImports(tenant: Tenant, query: z.infer<typeof importListQuery>): Promise<ListResult<ImportBatchSummary>> {
+  const where: Record<string, unknown> = {};
+  if (query.siteId !== undefined) where.siteId = query.siteId;
+  if (query.status !== undefined) where.status = query.status;
+  const { rows, count } = await tenant.findAndCountAll(ImportBatch, { where, order: orderFrom(query.sort), ...pageWindow(query.page, query.pageSize) });
+  return { items: await summaries(tenant, rows), total: count, page: query.page, pageSize: query.pageSize };
+}
+
+/** Every motor column's value of a motor row, in the motor vocabulary (for undo and for merging). */
+function fullValues(motor: Motor): Record<string, unknown> {
+  const values: Record<string, unknown> = { id: motor.id, version: motor.version, importBatchId: motor.importBatchId };
+  for (const [field] of MOTOR_COLUMNS) values[field] = (motor.get(field as keyof Motor) as unknown) ?? null;
+  return values;
+}
+
+async function setProgress(id: number, progress: number): Promise<void> {
+  await database().query('UPDATE import_batches SET progress = $1 WHERE id = $2', { bind: [progress, id], type: QueryTypes.UPDATE });
+}
+
+export async function commitImport(tenant: Tenant, id: number): Promise<ImportCommitResult> {
+  const batch = await tenant.findById(ImportBatch, id, 'Import');
+  // Claim the batch outside the transaction, so a second commit is refused and pollers see it.
+  const [, claimed] = await ImportBatch.update(
+    { status: 'committing', progress: 0, failure: null },
+    { where: tenant.where<ImportBatch>({ id, status: { [Op.in]: ['previewed', 'failed'] } }), returning: true },
+  );
+  if (claimed.length === 0) throw conflict('not-committable', `This import is ${batch.status}; only a preview can be committed.`);
+  try {
+    const result = await database().transaction(async (transaction) => {
+      const site = await Site.findOne({ where: tenant.where<Site>({ id: batch.siteId }), transaction, lock: transaction.LOCK.SHARE });
+      if (!site) throw notFound('Site');
+      const rows = await ImportRow.findAll({
+        where: { batchId: id, valid: true },
+        attributes: ['id', 'rowNumber', 'values'],
+        order: [['rowNumber', 'ASC']],
+        transaction,
+        raw: true,
+      });
+      if (rows.length === 0) throw conflict('nothing-to-commit', 'No row of this import is valid: correct the file or the mapping first.');
+      const tags = rows.map((row) => String(row.values.tag));
+      const existing = await Motor.findAll({ where: { siteId: site.id, tag: { [Op.in]: tags } }, transaction, lock: transaction.LOCK.UPDATE });
+      const byTag = new Map(existing.map((motor) => [motor.tag, motor]));
+      let created = 0;
+      let updated = 0;
+      let chunkIndex = 0;
+      for (let start = 0; start < rows.length; start += CHUNK_ROWS, chunkIndex += 1) {
+        const chunk = rows.slice(start, start + CHUNK_ROWS);
+        const creates: typeof chunk = [];
+        const updates: Array<{ row: (typeof chunk)[number]; motor: Motor }> = [];
+        for (const row of chunk) {
+          const motor = byTag.get(String(row.values.tag));
+          if (motor) updates.push({ row, motor });
+          else creates.push(row);
+        }
+        const newIds = await insertMotors(
+          tenant.organizationId,
+          site.id,
+          id,
+          creates.map((row) => ({ ...MOTOR_DEFAULTS, voltageV: site.voltageV, frequencyHz: site.frequencyHz, ...row.values })),
+          transaction,
+        );
+        const merged = updates.map(({ row, motor }) => ({ id: motor.id, ...fullValues(motor), ...row.values }));
+        await overwriteMotors(merged, transaction, id);
+        await recordRowOutcomes(
+          [
+            ...creates.map((row, index) => ({ id: row.id, action: 'create', motor_id: newIds[index] as number, previous: null })),
+            ...updates.map(({ row, motor }) => ({ id: row.id, action: 'update', motor_id: motor.id, previous: fullValues(motor) })),
+          ],
+          transaction,
+        );
+        await insertAudits(
+          tenant.organizationId,
+          tenant.user.id,
+          [
+            ...creates.map((row, index) => ({ action: 'import-create', entity_id: newIds[index] as number, changes: { importBatchId: id, row: row.rowNumber } })),
+            ...updates.map(({ row, motor }) => {
+              const before = fullValues(motor);
+              const changes: Record<string, { from: unknown; to: unknown }> = {};
+              for (const [field, to] of Object.entries(row.values)) {
+                if (JSON.stringify(before[field] ?? null) !== JSON.stringify(to)) changes[field] = { from: before[field] ?? null, to };
+              }
+              return { action: 'import-update', entity_id: motor.id, changes: { importBatchId: id, row: row.rowNumber, changes } };
+            }),
+          ],
+          transaction,
+        );
+        created += creates.length;
+        updated += updates.length;
+        if (process.env.NODE_ENV === 'test') intakeTestHooks.afterCommitChunk?.(chunkIndex);
+        await setProgress(id, Math.min(0.99, (start + chunk.length) / rows.length));
+      }
+      await ImportBatch.update(
+        { status: 'committed', progress: 1, createdCount: created, updatedCount: updated, committedAt: new Date(), failure: null },
+        { where: { id }, transaction },
+      );
+      await rememberMapping(tenant, batch.mapping as Mapping, transaction);
+      await tenant.audit('commit', 'import', id, { created, updated, skipped: batch.invalidRows }, transaction);
+      return { created, updated, skipped: batch.totalRows - rows.length };
+    });
+    return result;
+  } catch (error) {
+    const message = error instanceof AppError ? error.message : 'The commit failed; nothing was written.';
+    await ImportBatch.update({ status: error instanceof AppError && error.code === 'nothing-to-commit' ? 'previewed' : 'failed', progress: 0, failure: message }, { where: { id } });
+    if (error instanceof AppError) throw error;
+    throw new AppError('commit-failed', `The commit failed and nothing was written (${error instanceof Error ? error.message.slice(0, 200) : 'unknown error'}). Try again.`, 500);
+  }
+}
+
+export async function undoImport(tenant: Tenant, id: number): Promise<{ removed: number; restored: number; status: 'undone' }> {
+  return database().transaction(async (transaction) => {
+    const batch = await tenant.findById(ImportBatch, id, 'Import', { transaction, lock: transaction.LOCK.UPDATE });
+    if (batch.status === 'previewed' || batch.status === 'failed') {
+      await batch.update({ status: 'undone', undoneAt: new Date() }, { transaction });
+      await tenant.audit('discard', 'import', id, null, transaction);
+      return { removed: 0, restored: 0, status: 'undone' };
+    }
+    if (batch.status !== 'committed') throw conflict('not-undoable', `This import is ${batch.status}; only a committed import can be undone.`);
+    const rows = await ImportRow.findAll({
+      where: { batchId: id, action: { [Op.in]: ['create', 'update'] }, motorId: { [Op.ne]: null } },
+      attributes: ['rowNumber', 'action', 'motorId', 'previousValues'],
+      transaction,
+      raw: true,
+    });
+    const ids = rows.map((row) => row.motorId as number);
+    const motors = await Motor.findAll({ where: { id: { [Op.in]: ids }, organizationId: tenant.organizationId }, attributes: ['id', 'tag', 'version'], transaction, lock: transaction.LOCK.UPDATE });
+    const current = new Map(motors.map((motor) => [motor.id, motor]));
+    const createdIds = rows.filter((row) => row.action === 'create').map((row) => row.motorId as number);
+    const [measured, filed] = await Promise.all([
+      MotorMeasurement.findAll({ where: { motorId: { [Op.in]: createdIds } }, attributes: ['motorId'], transaction, raw: true }),
+      MotorFile.findAll({ where: { motorId: { [Op.in]: createdIds } }, attributes: ['motorId'], transaction, raw: true }),
+    ]);
+    const withRecords = new Set([...measured, ...filed].map((record) => record.motorId));
+    const changed: string[] = [];
+    for (const row of rows) {
+      const motor = current.get(row.motorId as number);
+      if (row.action === 'create') {
+        if (motor && (motor.version !== 0 || withRecords.has(motor.id))) changed.push(motor.tag);
+      } else {
+        const before = row.previousValues as { version: number; tag: string } | null;
+        if (!motor || !before || motor.version !== before.version + 1) changed.push(motor?.tag ?? before?.tag ?? `row ${row.rowNumber}`);
+      }
+    }
+    if (changed.length > 0) {
+      throw conflict(
+        'changed-since-import',
+        `${changed.length} motor(s) of this import were changed since (${changed.slice(0, 5).join(', ')}${changed.length > 5 ? '…' : ''}); undoing would lose those changes.`,
+        changed.map((tag) => ({ field: 'tag', message: tag })),
+      );
+    }
+    const existingCreated = createdIds.filter((motorId) => current.has(motorId));
+    if (existingCreated.length > 0) await Motor.destroy({ where: { id: { [Op.in]: existingCreated }, organizationId: tenant.organizationId }, transaction });
+    const restores = rows.filter((row) => row.action === 'update').map((row) => row.previousValues as Record<string, unknown>);
+    for (let start = 0; start < restores.length; start += CHUNK_ROWS) await overwriteMotors(restores.slice(start, start + CHUNK_ROWS), transaction, 'value');
+    await insertAudits(
+      tenant.organizationId,
+      tenant.user.id,
+      [
+        ...existingCreated.map((motorId) => ({ action: 'import-undo-remove', entity_id: motorId, changes: { importBatchId: id } })),
+        ...restores.map((values) => ({ action: 'import-undo-restore', entity_id: values.id as number, changes: { importBatchId: id } })),
+      ],
+      transaction,
+    );
+    await batch.update({ status: 'undone', undoneAt: new Date() }, { transaction });
+    await tenant.audit('undo', 'import', id, { removed: existingCreated.length, restored: restores.length }, transaction);
+    return { removed: existingCreated.length, restored: restores.length, status: 'undone' };
+  });
+}

@@ -1,0 +1,275 @@
+/**
+ * Every cell of every row validated: parsed with its column's unit, checked with the register's own
+ * field rules (server/shared/motor.ts, which agree with calc), then the row's cross-field checks and
+ * warnings, and the duplicates within the file and against the register.
+ *
+ * Policies (README and the API tests rely on them):
+ * - A row with any error is skipped by the commit; the other rows are committed together or not at all.
+ * - A tag found at the site updates that motor; only the cells that hold a value change it (a blank
+ *   cell never erases what the register knows).
+ * - A new motor needs tag, rated power and poles (or a speed to work poles out from); voltage and
+ *   frequency default to the site's.
+ * - A tag on several rows of one file is an error on each of those rows: the user picks which to keep.
+ */
+import { iecClassEfficiency, type Poles } from '../../calc/efficiency/classes.js';
+import { IMPORT_FIELD_INFO, type ImportField, type ImportMapping, type RowIssue } from '../shared/intake.js';
+import { motorFieldRules } from '../shared/motor.js';
+import {
+  parseApplication,
+  parseControlMethod,
+  parseDutyProfile,
+  parseEfficiencyClass,
+  parseFraction,
+  parseInteger,
+  parsePercent,
+  parsePoles,
+  parseQuantity,
+  parseStatus,
+  parseText,
+  type CellResult,
+  type CellValue,
+} from './cells.js';
+import { headerUnit } from './mapping.js';
+
+export interface ParsedRow {
+  /** Spreadsheet row number the user sees. */
+  row: number;
+  cells: CellValue[];
+}
+
+export interface ValidatedRow extends ParsedRow {
+  values: Record<string, unknown>;
+  errors: RowIssue[];
+  warnings: RowIssue[];
+  valid: boolean;
+  action: 'create' | 'update' | 'skip';
+  motorId: number | null;
+}
+
+export interface ValidationResult {
+  rows: ValidatedRow[];
+  counts: { total: number; valid: number; invalid: number; warnings: number };
+  duplicates: { inFile: Array<{ tag: string; rows: number[] }>; inRegister: Array<{ tag: string; row: number; motorId: number }> };
+  unmappedRequired: string[];
+}
+
+type ColumnReader = (cell: CellValue) => CellResult<unknown>;
+
+const QUANTITIES: Partial<Record<ImportField, { target: string; accepted: string; units: string[] }>> = {
+  ratedPowerKw: { target: 'kW', accepted: 'kW, W or hp', units: ['kW', 'W', 'MW', 'hp', 'PS'] },
+  speedRpm: { target: 'rpm', accepted: 'rpm', units: ['rpm'] },
+  voltageV: { target: 'V', accepted: 'V or kV', units: ['V', 'kV'] },
+  frequencyHz: { target: 'Hz', accepted: 'Hz', units: ['Hz'] },
+  ratedCurrentA: { target: 'A', accepted: 'A', units: ['A', 'mA'] },
+  hoursPerYear: { target: 'h/yr', accepted: 'h/yr, h/week or h/day', units: ['h/yr', 'h/y', 'h/a', 'h/year', 'h/week', 'h/wk', 'h/day', 'h/d'] },
+};
+
+/** The reader of one column: its field's parser, with the header's unit where one is written. */
+function columnReader(field: ImportField, header: string): ColumnReader {
+  const quantity = QUANTITIES[field];
+  if (quantity) {
+    const unit = headerUnit(header);
+    const columnUnit = unit !== undefined && quantity.units.includes(unit) ? unit : quantity.target;
+    const options = { target: quantity.target, columnUnit, accepted: quantity.accepted };
+    return (cell) => parseQuantity(cell, options);
+  }
+  switch (field) {
+    case 'application':
+      return parseApplication;
+    case 'controlMethod':
+      return parseControlMethod;
+    case 'efficiencyClass':
+      return parseEfficiencyClass;
+    case 'status':
+      return parseStatus;
+    case 'nameplateEfficiencyPct':
+      return parsePercent;
+    case 'powerFactor':
+    case 'loadFactor': {
+      const percent = headerUnit(header) === '%';
+      return (cell) => parseFraction(cell, percent);
+    }
+    case 'poles':
+      return parsePoles;
+    case 'yearInstalled':
+    case 'rewinds':
+      return parseInteger;
+    case 'dutyProfile':
+      return parseDutyProfile;
+    default:
+      return parseText;
+  }
+}
+
+const cellText = (cell: CellValue | undefined): string | null => (cell === null || cell === undefined ? null : String(cell).slice(0, 200));
+
+/** Synchronous speed [rpm] = 120 · f / p. */
+const synchronousRpm = (frequencyHz: number, poles: number) => (120 * frequencyHz) / poles;
+
+/** Poles from a rated speed: the largest even p whose synchronous speed is above it. */
+function polesFromSpeed(speedRpm: number, frequencyHz: number): number | undefined {
+  const ratio = (120 * frequencyHz) / speedRpm;
+  let poles = Math.floor(ratio);
+  if (poles % 2 === 1) poles -= 1;
+  if (poles >= 2 && poles * speedRpm === 120 * frequencyHz) poles -= 2; // exactly synchronous: no slip
+  return [2, 4, 6, 8].includes(poles) ? poles : undefined;
+}
+
+export interface ValidationContext {
+  headers: string[];
+  mapping: ImportMapping;
+  site: { voltageV: number; frequencyHz: number };
+  /** Motors of the site by tag. */
+  existing: Map<string, number>;
+  currentYear: number;
+}
+
+export function validateRows(rows: ParsedRow[], context: ValidationContext): ValidationResult {
+  const columns: Array<{ index: number; field: ImportField; read: ColumnReader; header: string }> = [];
+  context.headers.forEach((header, index) => {
+    const field = context.mapping[header];
+    if (field) columns.push({ index, field, read: columnReader(field, header), header });
+  });
+  const mapped = new Set(columns.map((column) => column.field));
+  const unmappedRequired: string[] = [];
+  if (!mapped.has('tag')) unmappedRequired.push('tag');
+  if (!mapped.has('ratedPowerKw')) unmappedRequired.push('ratedPowerKw');
+  if (!mapped.has('poles') && !mapped.has('speedRpm')) unmappedRequired.push('poles');
+
+  const validated: ValidatedRow[] = rows.map((parsed) => validateRow(parsed, columns, context));
+
+  // Duplicates within the file: every row of a repeated tag gets the error.
+  const byTag = new Map<string, ValidatedRow[]>();
+  for (const row of validated) {
+    const tag = row.values.tag;
+    if (typeof tag !== 'string') continue;
+    const list = byTag.get(tag);
+    if (list) list.push(row);
+    else byTag.set(tag, [row]);
+  }
+  const inFile: Array<{ tag: string; rows: number[] }> = [];
+  for (const [tag, list] of byTag) {
+    if (list.length < 2) continue;
+    const numbers = list.map((row) => row.row);
+    inFile.push({ tag, rows: numbers });
+    for (const row of list) {
+      row.errors.push({ row: row.row, field: 'tag', value: tag, message: `appears more than once in this file (rows ${numbers.join(', ')}); keep one` });
+    }
+  }
+
+  const inRegister: Array<{ tag: string; row: number; motorId: number }> = [];
+  let valid = 0;
+  let warnings = 0;
+  for (const row of validated) {
+    const tag = row.values.tag;
+    const motorId = typeof tag === 'string' ? context.existing.get(tag) : undefined;
+    if (motorId !== undefined && typeof tag === 'string') inRegister.push({ tag, row: row.row, motorId });
+    if (motorId === undefined) requireForCreate(row);
+    row.valid = row.errors.length === 0;
+    row.motorId = motorId ?? null;
+    row.action = !row.valid ? 'skip' : motorId === undefined ? 'create' : 'update';
+    if (row.valid) valid += 1;
+    if (row.warnings.length > 0) warnings += 1;
+  }
+  return {
+    rows: validated,
+    counts: { total: validated.length, valid, invalid: validated.length - valid, warnings },
+    duplicates: { inFile, inRegister },
+    unmappedRequired,
+  };
+}
+
+/** A new motor needs its rated power and poles; the others have defaults. */
+function requireForCreate(row: ValidatedRow): void {
+  const failed = new Set(row.errors.map((issue) => issue.field));
+  if (row.values.ratedPowerKw === undefined && !failed.has('ratedPowerKw')) {
+    row.errors.push({ row: row.row, field: 'ratedPowerKw', value: null, message: 'is required' });
+  }
+  if (row.values.poles === undefined && !failed.has('poles') && !failed.has('speedRpm')) {
+    row.errors.push({ row: row.row, field: 'poles', value: null, message: 'is required (or a speed to work it out from)' });
+  }
+}
+
+function validateRow(parsed: ParsedRow, columns: Array<{ index: number; field: ImportField; read: ColumnReader }>, context: ValidationContext): ValidatedRow {
+  const values: Record<string, unknown> = {};
+  const errors: RowIssue[] = [];
+  const warnings: RowIssue[] = [];
+  const raw: Partial<Record<ImportField, string | null>> = {};
+  for (const column of columns) {
+    const cell = parsed.cells[column.index] ?? null;
+    raw[column.field] = cellText(cell);
+    const result = column.read(cell);
+    if (!result.ok) {
+      errors.push({ row: parsed.row, field: column.field, value: cellText(cell), message: result.message });
+      continue;
+    }
+    if (result.value === null) continue;
+    const checked = motorFieldRules[column.field].safeParse(result.value);
+    if (!checked.success) {
+      errors.push({ row: parsed.row, field: column.field, value: cellText(cell), message: checked.error.issues[0]?.message ?? 'is invalid' });
+      continue;
+    }
+    values[column.field] = checked.data;
+    if (result.note && column.field === 'efficiencyClass') warnings.push({ row: parsed.row, field: column.field, value: cellText(cell), message: result.note });
+  }
+  if (values.tag === undefined && !errors.some((issue) => issue.field === 'tag')) {
+    errors.push({ row: parsed.row, field: 'tag', value: raw.tag ?? null, message: 'is required' });
+  }
+
+  const frequencyHz = (values.frequencyHz as number | undefined) ?? context.site.frequencyHz;
+  const speedRpm = values.speedRpm as number | undefined;
+  if (values.poles === undefined && speedRpm !== undefined) {
+    const poles = polesFromSpeed(speedRpm, frequencyHz);
+    if (poles === undefined) {
+      errors.push({ row: parsed.row, field: 'speedRpm', value: raw.speedRpm ?? null, message: `does not give 2, 4, 6 or 8 poles at ${frequencyHz} Hz; give the poles` });
+    } else {
+      values.poles = poles;
+      warnings.push({ row: parsed.row, field: 'poles', value: null, message: `worked out as ${poles} from ${speedRpm} rpm at ${frequencyHz} Hz` });
+    }
+  } else if (values.poles !== undefined && speedRpm !== undefined) {
+    const synchronous = synchronousRpm(frequencyHz, values.poles as number);
+    if (speedRpm > synchronous * 1.001 || speedRpm < synchronous * 0.8) {
+      warnings.push({
+        row: parsed.row,
+        field: 'speedRpm',
+        value: raw.speedRpm ?? null,
+        message: `${speedRpm} rpm does not fit ${values.poles as number} poles at ${frequencyHz} Hz (synchronous speed ${synchronous} rpm)`,
+      });
+    }
+  }
+
+  const efficiency = values.nameplateEfficiencyPct as number | undefined;
+  const ratedPowerKw = values.ratedPowerKw as number | undefined;
+  if (efficiency !== undefined && ratedPowerKw !== undefined && values.poles !== undefined) {
+    try {
+      const ie1 = iecClassEfficiency(ratedPowerKw, values.poles as Poles, frequencyHz, 'IE1');
+      if (efficiency < ie1.efficiencyPct) {
+        warnings.push({
+          row: parsed.row,
+          field: 'nameplateEfficiencyPct',
+          value: raw.nameplateEfficiencyPct ?? null,
+          message: `${efficiency} % is below the IE1 minimum of ${ie1.efficiencyPct} % for ${ratedPowerKw} kW, ${values.poles as number} poles, ${frequencyHz} Hz (IEC 60034-30-1)`,
+        });
+      }
+    } catch {
+      // Outside the standard's range: nothing to compare against.
+    }
+  }
+
+  const profile = values.dutyProfile as Array<{ hours: number }> | undefined;
+  const hoursPerYear = values.hoursPerYear as number | undefined;
+  if (profile && hoursPerYear !== undefined) {
+    const sum = profile.reduce((total, bin) => total + bin.hours, 0);
+    if (Math.abs(sum - hoursPerYear) > 1) {
+      warnings.push({ row: parsed.row, field: 'dutyProfile', value: raw.dutyProfile ?? null, message: `bins add up to ${sum} h but hours per year is ${hoursPerYear} h` });
+    }
+  }
+  const year = values.yearInstalled as number | undefined;
+  if (year !== undefined && year > context.currentYear) {
+    warnings.push({ row: parsed.row, field: 'yearInstalled', value: raw.yearInstalled ?? null, message: `${year} is in the future` });
+  }
+  return { ...parsed, values, errors, warnings, valid: errors.length === 0, action: 'skip', motorId: null };
+}
+
+/** Field labels for messages and the template. */
+export const FIELD_LABELS = new Map(IMPORT_FIELD_INFO.map((info) => [info.field, info.label]));
