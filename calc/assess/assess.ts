@@ -211,10 +211,27 @@ const round4OrNull = (value: number | null): number | null => (value === null ? 
 function toFixed0(value: number): string {
   const magnitude = Math.abs(value);
   if (!(magnitude < 9007199254740992)) return value.toFixed(0); // 2^53: above it toFixed prints exact digits, String the shortest
-  if (Number.isInteger(value)) return String(value);
+  if (Number.isInteger(value)) return integerString(value);
   const whole = Math.floor(magnitude); // below 2^53 the fraction magnitude − whole is exact
   const rounded = magnitude - whole >= 0.5 ? whole + 1 : whole;
-  return value < 0 ? `-${rounded}` : String(rounded);
+  return value < 0 ? `-${integerString(rounded)}` : integerString(rounded);
+}
+
+/** String of an integer-valued number; as a small integer it takes the engine's number-string cache. */
+function integerString(value: number): string {
+  return value >= -2147483648 && value <= 2147483647 && !Object.is(value, -0) ? String(value | 0) : String(value);
+}
+
+/** The BLDC model's source text by IE5 value; the memoised class values are shared objects, so a WeakMap finds them. */
+const bldcSources = new WeakMap<ClassEfficiency, string>();
+
+function bldcModelSource(ie5: ClassEfficiency): string {
+  let source = bldcSources.get(ie5);
+  if (source === undefined) {
+    source = `no sized design given (motor.bldcCurve); IE5 ${ie5.efficiencyPct} % from ${ie5.source}`;
+    bldcSources.set(ie5, source);
+  }
+  return source;
 }
 
 /** Error field of each price-book item, built once rather than per option. */
@@ -747,7 +764,7 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
       driveClass: newDriveClass,
       driveFullLoadLossKw: driveFullLoadLossKw(ratedPowerKw, newDriveClass),
       assumptions: [
-        { what: 'BLDC model', value: 'generic permanent-magnet part-load model at the IE5 level', source: `no sized design given (motor.bldcCurve); IE5 ${ie5.efficiencyPct} % from ${ie5.source}` },
+        { what: 'BLDC model', value: 'generic permanent-magnet part-load model at the IE5 level', source: bldcModelSource(ie5) },
         { what: 'BLDC drive class (IEC 61800-9-2)', value: newDriveClass, source: 'new drive' },
       ],
     };
