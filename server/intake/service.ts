@@ -342,7 +342,7 @@ export async function commitImport(tenant: Tenant, id: number): Promise<ImportCo
         await overwriteMotors(merged, transaction, id);
         await recordRowOutcomes(
           [
-            ...creates.map((row, index) => ({ id: row.id, action: 'create', motor_id: newIds[index] as number, previous: null })),
+            ...creates.map((row) => ({ id: row.id, action: 'create', motor_id: newIds.get(String(row.values.tag)) as number, previous: null })),
             ...updates.map(({ row, motor }) => ({ id: row.id, action: 'update', motor_id: motor.id, previous: fullValues(motor) })),
           ],
           transaction,
@@ -351,7 +351,7 @@ export async function commitImport(tenant: Tenant, id: number): Promise<ImportCo
           tenant.organizationId,
           tenant.user.id,
           [
-            ...creates.map((row, index) => ({ action: 'import-create', entity_id: newIds[index] as number, changes: { importBatchId: id, row: row.rowNumber } })),
+            ...creates.map((row) => ({ action: 'import-create', entity_id: newIds.get(String(row.values.tag)) as number, changes: { importBatchId: id, row: row.rowNumber } })),
             ...updates.map(({ row, motor }) => {
               const before = fullValues(motor);
               const changes: Record<string, { from: unknown; to: unknown }> = {};

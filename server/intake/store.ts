@@ -59,26 +59,25 @@ export async function insertRows(batchId: number, rows: ValidatedRow[], transact
   }
 }
 
-/** Inserts new motors; answers their ids in the order given. */
+/** Inserts new motors; answers their ids by tag (tags are unique within a site and a batch). */
 export async function insertMotors(
   organizationId: number,
   siteId: number,
   batchId: number,
   motors: Array<Record<string, unknown>>,
   transaction: Transaction,
-): Promise<number[]> {
-  if (motors.length === 0) return [];
+): Promise<Map<string, number>> {
+  if (motors.length === 0) return new Map();
   const columns = MOTOR_COLUMNS.map(([, column]) => column).join(', ');
   const selected = MOTOR_COLUMNS.map(([field, , , cast]) => `v."${field}"${cast}`).join(', ');
-  const rows = await database().query<{ id: number; ordinal: number }>(
+  const rows = await database().query<{ id: number; tag: string }>(
     `INSERT INTO motors (organization_id, site_id, import_batch_id, version, created_at, updated_at, ${columns})
      SELECT $1, $2, $3, 0, now(), now(), ${selected}
-     FROM jsonb_to_recordset($4::jsonb) WITH ORDINALITY AS v(${recordsetColumns}, ordinal)
-     ORDER BY v.ordinal
-     RETURNING id`,
+     FROM jsonb_to_recordset($4::jsonb) AS v(${recordsetColumns})
+     RETURNING id, tag`,
     { bind: [organizationId, siteId, batchId, JSON.stringify(motors)], transaction, type: QueryTypes.SELECT },
   );
-  return rows.map((row) => row.id);
+  return new Map(rows.map((row) => [row.tag, row.id]));
 }
 
 /** Writes full motor values over existing motors (by `id`), bumping their version. */
