@@ -29,6 +29,10 @@ import { outboxRoutes } from './outbox/routes.js';
 import { overviewRoutes } from './overview/routes.js';
 import type { SessionUser } from './shared/auth.js';
 import { siteRoutes } from './sites/routes.js';
+import { designRoutes } from './designs/routes.js';
+import { screeningRoutes } from './screening/routes.js';
+import { settingsRoutes } from './settings/routes.js';
+import { studyRoutes } from './studies/routes.js';
 import { userRoutes } from './users/routes.js';
 
 export interface AppOptions {
@@ -43,7 +47,7 @@ const SESSION_HOURS = 12;
 const packageVersion = (JSON.parse(readFileSync(join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;
 
 export function allRoutes(mailer: Mailer, publicUrl: string): RouteSpec[] {
-  return [...healthRoutes, ...authRoutes, ...overviewRoutes, ...siteRoutes, ...userRoutes(mailer, publicUrl), ...outboxRoutes, ...motorRoutes, ...intakeRoutes];
+  return [...healthRoutes, ...authRoutes, ...overviewRoutes, ...siteRoutes, ...userRoutes(mailer, publicUrl), ...outboxRoutes, ...motorRoutes, ...intakeRoutes, ...studyRoutes, ...screeningRoutes, ...designRoutes, ...settingsRoutes];
 }
 
 export function createApp(options: AppOptions) {

@@ -11,6 +11,7 @@ import { logger } from '../lib/logger.js';
 import { startMailCatcher, type MailCatcher } from '../lib/mail-catcher.js';
 import { createMailer } from '../lib/mail.js';
 import { ClusterError } from '../lib/postgres-cluster.js';
+import { startJobs, stopJobs } from '../jobs/index.js';
 
 async function main(): Promise<void> {
   const config = loadConfig();
@@ -31,6 +32,8 @@ async function main(): Promise<void> {
   if (config.sessionSecretIsRandom) logger.warn('SESSION_SECRET is not set: sessions end when the server restarts.');
 
   const { app, close: closeApp } = createApp({ config, databaseUrl: database.url, mailer });
+  // Background jobs (screenings): this instance takes its share of the PostgreSQL queue.
+  await startJobs();
   const server = app.listen(config.port, config.host, () => {
     process.stdout.write(`\nStatorline is ready on http://${config.host}:${config.port}  (Ctrl-C stops it and its database)\n`);
     process.stdout.write('Demo sign-ins: admin@kestrel.example, engineer@kestrel.example, approver@kestrel.example, viewer@kestrel.example — password statorline-demo\n\n');
@@ -44,6 +47,7 @@ async function main(): Promise<void> {
     const forced = setTimeout(() => server.closeAllConnections(), 10_000);
     await new Promise<void>((resolve) => server.close(() => resolve()));
     clearTimeout(forced);
+    await stopJobs();
     mailer.close();
     await catcher?.close();
     await closeApp();

@@ -40,6 +40,8 @@ export class Motor extends Model<InferAttributes<Motor>, InferCreationAttributes
   declare status: CreationOptional<(typeof MOTOR_STATUSES)[number]>;
   declare notes: CreationOptional<string | null>;
   declare importBatchId: CreationOptional<number | null>;
+  /** The BLDC design whose part-load curve this motor's BLDC options use (issue 7). */
+  declare bldcDesignId: CreationOptional<number | null>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -75,6 +77,7 @@ export class Motor extends Model<InferAttributes<Motor>, InferCreationAttributes
         status: { type: DataTypes.ENUM(...MOTOR_STATUSES), allowNull: false, defaultValue: 'in-service' },
         notes: { type: DataTypes.TEXT, allowNull: true },
         importBatchId: { type: DataTypes.INTEGER, allowNull: true },
+        bldcDesignId: { type: DataTypes.INTEGER, allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -11,6 +11,7 @@ import { connectDatabase, database } from '../../server/lib/database.js';
 import { setLogLevel } from '../../server/lib/logger.js';
 import { startMailCatcher, type MailCatcher } from '../../server/lib/mail-catcher.js';
 import { createMailer } from '../../server/lib/mail.js';
+import { startJobs, stopJobs } from '../../server/jobs/index.js';
 import { hashPassword } from '../../server/lib/passwords.js';
 import { Organization, OutboxMessage, Site, User } from '../../server/models/index.js';
 import type { Role } from '../../server/shared/roles.js';
@@ -32,10 +33,13 @@ export async function startTestApp(options: { signInAttemptsPerWindow?: number }
   const config = { ...loadConfig({ NODE_ENV: 'test', SESSION_SECRET: 'test-secret-test-secret' }), publicUrl: 'http://127.0.0.1:3000' };
   const mailer = createMailer({ catcherPort: catcher.port, from: config.mailFrom });
   const { app, close } = createApp({ config, databaseUrl: url, mailer, ...options });
+  // The job runner, polling often so screening tests finish quickly.
+  await startJobs({ pollMs: 100 });
   return {
     app,
     catcher,
     async close() {
+      await stopJobs();
       mailer.close();
       await catcher.close();
       await close();

@@ -1,0 +1,98 @@
+import { route, type RouteSpec } from '../lib/routing.js';
+import { idParams } from '../shared/common.js';
+import {
+  designCreateBody,
+  designCreated,
+  designEfficiencyMapBody,
+  designEfficiencyMapOutput,
+  designList,
+  designListQuery,
+  designOutput,
+  designSimulateBody,
+  designSimulateOutput,
+  designSweepBody,
+  designSweepOutput,
+  motorDesignLinkBody,
+  motorDesignLinkOutput,
+} from '../shared/design.js';
+import { EDITORS } from '../shared/roles.js';
+import { createDesign, efficiencyMapOfDesign, getDesign, linkMotorDesign, listDesigns, simulateDesign, sweepDesign } from './service.js';
+
+export const designRoutes: RouteSpec[] = [
+  route({
+    method: 'get',
+    path: '/designs',
+    summary: 'List BLDC designs',
+    tag: 'designs',
+    access: 'signed-in',
+    query: designListQuery,
+    response: designList,
+    handler: ({ tenant, query }) => listDesigns(tenant, query),
+  }),
+  route({
+    method: 'post',
+    path: '/designs',
+    summary: 'Size a BLDC (the `size-bldc` command’s input, optionally motorId and name) and save it; answers the result plus id',
+    tag: 'designs',
+    access: EDITORS,
+    body: designCreateBody,
+    response: designCreated,
+    status: 201,
+    handler: ({ tenant, body }) => createDesign(tenant, body),
+  }),
+  // Declared before /designs/:id so that "sweep" is never read as an id.
+  route({
+    method: 'post',
+    path: '/designs/sweep',
+    summary: 'Vary one size-bldc input over a range (the `sweep` command) and tabulate the designs',
+    tag: 'designs',
+    access: 'signed-in',
+    body: designSweepBody,
+    response: designSweepOutput,
+    handler: ({ tenant, body }) => sweepDesign(tenant, body),
+  }),
+  route({
+    method: 'get',
+    path: '/designs/:id',
+    summary: 'One BLDC design with its input and full result',
+    tag: 'designs',
+    access: 'signed-in',
+    params: idParams,
+    response: designOutput,
+    handler: ({ tenant, params }) => getDesign(tenant, params.id),
+  }),
+  route({
+    method: 'post',
+    path: '/designs/:id/simulate',
+    summary: 'Start-up simulation of the design on its six-step drive (the `simulate` command’s options)',
+    tag: 'designs',
+    access: 'signed-in',
+    params: idParams,
+    body: designSimulateBody,
+    response: designSimulateOutput,
+    handler: ({ tenant, params, body }) => simulateDesign(tenant, params.id, body),
+  }),
+  route({
+    method: 'post',
+    path: '/designs/:id/efficiency-map',
+    summary: 'Motor + drive efficiency of the design over a speed × torque grid',
+    tag: 'designs',
+    access: 'signed-in',
+    params: idParams,
+    body: designEfficiencyMapBody,
+    response: designEfficiencyMapOutput,
+    handler: ({ tenant, params, body }) => efficiencyMapOfDesign(tenant, params.id, body),
+  }),
+  route({
+    method: 'post',
+    path: '/motors/:id/design',
+    summary: 'Make a BLDC design the motor’s BLDC option in every assessment (designId null unlinks)',
+    tag: 'designs',
+    access: EDITORS,
+    params: idParams,
+    body: motorDesignLinkBody,
+    response: motorDesignLinkOutput,
+    handler: ({ tenant, params, body }) => linkMotorDesign(tenant, params.id, body.designId, body.version),
+  }),
+];
+

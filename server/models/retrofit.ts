@@ -1,0 +1,47 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { RETROFIT_SOURCES, RETROFIT_STATUSES } from '../shared/screening.js';
+
+/** A retrofit of one motor, from proposal on (the Retrofit log takes the later stages). */
+export class Retrofit extends Model<InferAttributes<Retrofit>, InferCreationAttributes<Retrofit>> {
+  declare id: CreationOptional<number>;
+  declare organizationId: number;
+  declare motorId: number;
+  declare optionCode: string;
+  declare status: CreationOptional<(typeof RETROFIT_STATUSES)[number]>;
+  declare source: (typeof RETROFIT_SOURCES)[number];
+  declare jobId: number | null;
+  declare predictedSavingsKwh: number;
+  /** NUMERIC: read as strings. */
+  declare predictedSavingsCost: string | number;
+  declare capex: string | number;
+  declare npv: string | number;
+  declare currency: string;
+  declare createdBy: number | null;
+  declare version: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize): void {
+    Retrofit.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        organizationId: { type: DataTypes.INTEGER, allowNull: false },
+        motorId: { type: DataTypes.INTEGER, allowNull: false },
+        optionCode: { type: DataTypes.STRING(20), allowNull: false },
+        status: { type: DataTypes.ENUM(...RETROFIT_STATUSES), allowNull: false, defaultValue: 'proposed' },
+        source: { type: DataTypes.ENUM(...RETROFIT_SOURCES), allowNull: false },
+        jobId: { type: DataTypes.INTEGER, allowNull: true },
+        predictedSavingsKwh: { type: DataTypes.DOUBLE, allowNull: false },
+        predictedSavingsCost: { type: DataTypes.DECIMAL(16, 2), allowNull: false },
+        capex: { type: DataTypes.DECIMAL(16, 2), allowNull: false },
+        npv: { type: DataTypes.DECIMAL(16, 2), allowNull: false },
+        currency: { type: DataTypes.CHAR(3), allowNull: false },
+        createdBy: { type: DataTypes.INTEGER, allowNull: true },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'retrofits', underscored: true },
+    );
+  }
+}
