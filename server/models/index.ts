@@ -17,16 +17,20 @@ import { Material } from './material.js';
 import { OrganizationSettings } from './organization-settings.js';
 import { Retrofit } from './retrofit.js';
 import { Study } from './study.js';
+import { BusinessCase, CaseSend } from './business-case.js';
 
 export { AuditLog, ImportBatch, ImportMapping, ImportRow, Motor, MotorFile, MotorMeasurement, Organization, OutboxAttachment, OutboxMessage, Site, User };
 
 export { BldcDesign, Job, Material, OrganizationSettings, Retrofit, Study };
+
+export { BusinessCase, CaseSend };
 
 export function initModels(sequelize: Sequelize): void {
   for (const model of [Organization, User, Site, ImportBatch, Motor, AuditLog, OutboxMessage, OutboxAttachment, MotorMeasurement, MotorFile, ImportRow, ImportMapping]) {
     model.initModel(sequelize);
   }
   for (const model of [OrganizationSettings, Material, Study, BldcDesign, Job, Retrofit]) model.initModel(sequelize);
+  for (const model of [BusinessCase, CaseSend]) model.initModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
   Site.hasMany(Motor, { foreignKey: 'siteId', as: 'motors' });

@@ -127,7 +127,10 @@ export const caseEconomics = z.object({
   discountedPaybackYears: z.number().nullable(),
   npv: z.number(),
   irr: z.number().nullable(),
+  /** Σ over the recommended items: capex + present value of the option's running cost over its life [currency]. */
   lifeCycleCost: z.number(),
+  /** The same motors kept as they are: present value of today's running cost over the same lives, no capex [currency]. */
+  lifeCycleCostToday: z.number(),
   /** Longest life of the recommended options: the length of the aggregate cash flow [yr]. */
   analysisYears: z.number().int(),
   discountRatePct: z.number(),
