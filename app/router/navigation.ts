@@ -23,6 +23,7 @@ export const NAVIGATION: NavSection[] = [
     items: [
       { name: 'overview', label: 'Overview', icon: 'dashboard' },
       { name: 'sites', label: 'Sites', icon: 'factory' },
+      { name: 'bldc-sizing', label: 'BLDC sizing', icon: 'precision_manufacturing' },
       { name: 'outbox', label: 'Outbox', icon: 'mail' },
     ],
   },

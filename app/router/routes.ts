@@ -33,6 +33,15 @@ const routes: RouteRecordRaw[] = [
         meta: { roles: EDITORS },
       },
       {
+        path: 'bldc-sizing',
+        name: 'bldc-sizing',
+        component: () => import('pages/BldcSizingPage.vue'),
+        props: (route) => ({
+          motorId: /^\d+$/.test(String(route.query.motorId ?? '')) ? Number(route.query.motorId) : null,
+          designId: /^\d+$/.test(String(route.query.designId ?? '')) ? Number(route.query.designId) : null,
+        }),
+      },
+      {
         path: 'settings/team',
         name: 'team',
         component: () => import('pages/TeamPage.vue'),
