@@ -47,7 +47,7 @@ export const intakeRoutes: RouteSpec[] = [
   route({
     method: 'post',
     path: '/imports',
-    summary: 'Upload a motor list (multipart: file .xlsx/.xls/.csv up to 10 MB, siteId, optional mapping JSON) → preview with row errors',
+    summary: 'Upload a motor list (multipart: file .xlsx/.xls/.csv up to 25 MB, siteId, optional mapping JSON) → preview with row errors',
     tag: 'imports',
     access: EDITORS,
     response: importPreviewResult,

@@ -87,14 +87,14 @@ export const importUploadBody = z.object({
 
 export const IMPORT_LIMITS = {
   /** Upload size [bytes]. */
-  maxFileBytes: 10 * 1024 * 1024,
+  maxFileBytes: 25 * 1024 * 1024,
   /** Data rows below the header row. */
   maxRows: 100_000,
   maxColumns: 200,
   /** Wall-clock limit of the parsing worker [ms]. */
-  parseTimeoutMs: 20_000,
+  parseTimeoutMs: 90_000,
   /** Heap limit of the parsing worker [MB]. */
-  parseHeapMb: 512,
+  parseHeapMb: 1024,
   /** Row issues listed in the upload/re-map answer (all are in the paged preview). */
   maxIssuesListed: 500,
 } as const;
