@@ -136,7 +136,8 @@ export const proposalCreateBody = z.object({
 });
 
 export const RETROFIT_STATUSES = ['proposed', 'approved', 'rejected', 'ordered', 'installed', 'verified'] as const;
-export const RETROFIT_SOURCES = ['screening', 'study', 'manual'] as const;
+/** 'case': created approved by a business-case approval (server/cases, migration 20261201160200). */
+export const RETROFIT_SOURCES = ['screening', 'study', 'manual', 'case'] as const;
 
 export const retrofitOutput = z.object({
   id: z.number().int(),
