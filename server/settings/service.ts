@@ -36,7 +36,8 @@ import {
   type assumptionsUpdateBody,
   type priceBookUpdateBody,
 } from '../shared/settings.js';
-import { withCalcErrors } from '../studies/calc-errors.js';
+import { CalcInputError } from '../../calc/errors.js';
+import { calcInputToAppError } from '../studies/calc-errors.js';
 
 /** What the organisation stored, as calc's `assess` takes it (undefined parts: calc's defaults). */
 export interface StoredAssessSettings {
@@ -177,7 +178,14 @@ export function updateAssumptions(tenant: Tenant, body: z.infer<typeof assumptio
 
 /** Checks a material with calc/bldc's own rules (resolveMagnet / resolveSteel), naming the field. */
 function checkMaterial(kind: MaterialKind, material: Record<string, unknown>): void {
-  withCalcErrors(() => (kind === 'magnet' ? resolveMagnet(material as unknown as MagnetGrade) : resolveSteel(material as unknown as LaminationSteel)));
+  try {
+    if (kind === 'magnet') resolveMagnet(material as unknown as MagnetGrade);
+    else resolveSteel(material as unknown as LaminationSteel);
+  } catch (error) {
+    // calc names the field inside its `magnet`/`steel` input; here the material is the whole body.
+    if (error instanceof CalcInputError) throw calcInputToAppError(new CalcInputError(error.field.replace(/^(magnet|steel)\.?/, '') || 'name', error.message.replace(/^"[^"]*" /, '')));
+    throw error;
+  }
 }
 
 function refuseBuiltInName(kind: MaterialKind, name: string): void {
