@@ -23,6 +23,8 @@ export const NAVIGATION: NavSection[] = [
     items: [
       { name: 'overview', label: 'Overview', icon: 'dashboard' },
       { name: 'sites', label: 'Sites', icon: 'factory' },
+      { name: 'motors', label: 'Motor register', icon: 'settings_input_component' },
+      { name: 'intake', label: 'Intake', icon: 'upload_file' },
       { name: 'bldc-sizing', label: 'BLDC sizing', icon: 'precision_manufacturing' },
       { name: 'outbox', label: 'Outbox', icon: 'mail' },
     ],

@@ -32,6 +32,33 @@ const routes: RouteRecordRaw[] = [
         props: (route) => ({ id: Number(route.params.id) }),
         meta: { roles: EDITORS },
       },
+      { path: 'motors', name: 'motors', component: () => import('pages/MotorsPage.vue') },
+      {
+        path: 'motors/new',
+        name: 'motor-new',
+        component: () => import('pages/MotorFormPage.vue'),
+        props: (route) => ({ id: null, siteId: route.query.siteId ? Number(route.query.siteId) : null }),
+        meta: { roles: EDITORS },
+      },
+      {
+        path: 'motors/:id(\\d+)',
+        name: 'motor-detail',
+        component: () => import('pages/MotorDetailPage.vue'),
+        props: (route) => ({ id: Number(route.params.id) }),
+      },
+      {
+        path: 'motors/:id(\\d+)/edit',
+        name: 'motor-edit',
+        component: () => import('pages/MotorFormPage.vue'),
+        props: (route) => ({ id: Number(route.params.id) }),
+        meta: { roles: EDITORS },
+      },
+      {
+        path: 'intake',
+        name: 'intake',
+        component: () => import('pages/IntakePage.vue'),
+        meta: { roles: EDITORS },
+      },
       {
         path: 'bldc-sizing',
         name: 'bldc-sizing',
