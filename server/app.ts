@@ -14,6 +14,7 @@ import passport from 'passport';
 import pg from 'pg';
 import { ConnectionError } from 'sequelize';
 import { authRoutes } from './auth/routes.js';
+import { caseRoutes } from './cases/routes.js';
 import { loadSessionUser } from './auth/session-user.js';
 import { healthRoutes } from './health/routes.js';
 import { intakeRoutes } from './intake/routes.js';
@@ -31,6 +32,7 @@ import type { SessionUser } from './shared/auth.js';
 import { siteRoutes } from './sites/routes.js';
 import { designRoutes } from './designs/routes.js';
 import { screeningRoutes } from './screening/routes.js';
+import { retrofitRoutes } from './retrofits/routes.js';
 import { settingsRoutes } from './settings/routes.js';
 import { studyRoutes } from './studies/routes.js';
 import { userRoutes } from './users/routes.js';
@@ -47,7 +49,7 @@ const SESSION_HOURS = 12;
 const packageVersion = (JSON.parse(readFileSync(join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;
 
 export function allRoutes(mailer: Mailer, publicUrl: string): RouteSpec[] {
-  return [...healthRoutes, ...authRoutes, ...overviewRoutes, ...siteRoutes, ...userRoutes(mailer, publicUrl), ...outboxRoutes, ...motorRoutes, ...intakeRoutes, ...studyRoutes, ...screeningRoutes, ...designRoutes, ...settingsRoutes];
+  return [...healthRoutes, ...authRoutes, ...overviewRoutes, ...siteRoutes, ...userRoutes(mailer, publicUrl), ...outboxRoutes, ...motorRoutes, ...intakeRoutes, ...studyRoutes, ...screeningRoutes, ...designRoutes, ...settingsRoutes, ...retrofitRoutes(mailer, publicUrl), ...caseRoutes(mailer, publicUrl)];
 }
 
 export function createApp(options: AppOptions) {

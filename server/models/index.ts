@@ -18,6 +18,7 @@ import { OrganizationSettings } from './organization-settings.js';
 import { Retrofit } from './retrofit.js';
 import { Study } from './study.js';
 import { BusinessCase, CaseSend } from './business-case.js';
+import { RetrofitEvent, RetrofitFile, RetrofitMeterData } from './retrofit-log.js';
 
 export { AuditLog, ImportBatch, ImportMapping, ImportRow, Motor, MotorFile, MotorMeasurement, Organization, OutboxAttachment, OutboxMessage, Site, User };
 
@@ -25,12 +26,15 @@ export { BldcDesign, Job, Material, OrganizationSettings, Retrofit, Study };
 
 export { BusinessCase, CaseSend };
 
+export { RetrofitEvent, RetrofitFile, RetrofitMeterData };
+
 export function initModels(sequelize: Sequelize): void {
   for (const model of [Organization, User, Site, ImportBatch, Motor, AuditLog, OutboxMessage, OutboxAttachment, MotorMeasurement, MotorFile, ImportRow, ImportMapping]) {
     model.initModel(sequelize);
   }
   for (const model of [OrganizationSettings, Material, Study, BldcDesign, Job, Retrofit]) model.initModel(sequelize);
   for (const model of [BusinessCase, CaseSend]) model.initModel(sequelize);
+  for (const model of [RetrofitEvent, RetrofitFile, RetrofitMeterData]) model.initModel(sequelize);
   Organization.hasMany(User, { foreignKey: 'organizationId' });
   User.belongsTo(Organization, { foreignKey: 'organizationId', as: 'organization' });
   Site.hasMany(Motor, { foreignKey: 'siteId', as: 'motors' });

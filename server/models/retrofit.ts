@@ -17,6 +17,20 @@ export class Retrofit extends Model<InferAttributes<Retrofit>, InferCreationAttr
   declare npv: string | number;
   declare currency: string;
   declare createdBy: number | null;
+  // The Retrofit log's fields (issue 9; migrations 20261201170000 and 20261201170400).
+  declare orderDate: CreationOptional<string | null>;
+  declare expectedInstallationDate: CreationOptional<string | null>;
+  declare installationDate: CreationOptional<string | null>;
+  declare actualCapex: CreationOptional<string | number | null>;
+  declare rebateReceived: CreationOptional<string | number | null>;
+  declare installedEquipment: CreationOptional<Record<string, unknown> | null>;
+  declare notes: CreationOptional<string | null>;
+  declare statusChangedAt: CreationOptional<Date | null>;
+  declare verificationMethod: CreationOptional<'A' | 'B'>;
+  declare independentVariable: CreationOptional<string | null>;
+  declare stipulatedHoursPerYear: CreationOptional<number | null>;
+  declare verifiedSavingsKwh: CreationOptional<number | null>;
+  declare verifiedUncertaintyKwh: CreationOptional<number | null>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -37,6 +51,19 @@ export class Retrofit extends Model<InferAttributes<Retrofit>, InferCreationAttr
         npv: { type: DataTypes.DECIMAL(16, 2), allowNull: false },
         currency: { type: DataTypes.CHAR(3), allowNull: false },
         createdBy: { type: DataTypes.INTEGER, allowNull: true },
+        orderDate: { type: DataTypes.DATEONLY, allowNull: true },
+        expectedInstallationDate: { type: DataTypes.DATEONLY, allowNull: true },
+        installationDate: { type: DataTypes.DATEONLY, allowNull: true },
+        actualCapex: { type: DataTypes.DECIMAL(16, 2), allowNull: true },
+        rebateReceived: { type: DataTypes.DECIMAL(16, 2), allowNull: true },
+        installedEquipment: { type: DataTypes.JSONB, allowNull: true },
+        notes: { type: DataTypes.TEXT, allowNull: true },
+        statusChangedAt: { type: DataTypes.DATE, allowNull: true },
+        verificationMethod: { type: DataTypes.STRING(1), allowNull: false, defaultValue: 'B' },
+        independentVariable: { type: DataTypes.STRING(80), allowNull: true },
+        stipulatedHoursPerYear: { type: DataTypes.DOUBLE, allowNull: true },
+        verifiedSavingsKwh: { type: DataTypes.DOUBLE, allowNull: true },
+        verifiedUncertaintyKwh: { type: DataTypes.DOUBLE, allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -6,12 +6,10 @@ import {
   proposalCreateBody,
   proposalParams,
   proposalsCreated,
-  retrofitList,
-  retrofitListQuery,
   screeningStartBody,
   screeningStarted,
 } from '../shared/screening.js';
-import { cancelJob, createProposals, getJob, listRetrofits, startScreening } from './service.js';
+import { cancelJob, createProposals, getJob, startScreening } from './service.js';
 
 export const screeningRoutes: RouteSpec[] = [
   route({
@@ -58,14 +56,5 @@ export const screeningRoutes: RouteSpec[] = [
     status: 201,
     handler: ({ tenant, params, body }) => createProposals(tenant, params.jobId, body.motorIds),
   }),
-  route({
-    method: 'get',
-    path: '/retrofits',
-    summary: 'List retrofits (proposals from screenings so far)',
-    tag: 'retrofits',
-    access: 'signed-in',
-    query: retrofitListQuery,
-    response: retrofitList,
-    handler: ({ tenant, query }) => listRetrofits(tenant, query),
-  }),
+  // GET /api/retrofits moved to server/retrofits/routes.ts (the Retrofit log, issue 9).
 ];
