@@ -25,11 +25,21 @@ export const NAVIGATION: NavSection[] = [
       { name: 'sites', label: 'Sites', icon: 'factory' },
       { name: 'motors', label: 'Motor register', icon: 'settings_input_component' },
       { name: 'intake', label: 'Intake', icon: 'upload_file' },
+      { name: 'quick-study', label: 'Quick study', icon: 'query_stats' },
+      { name: 'screening', label: 'Site screening', icon: 'playlist_add_check' },
       { name: 'bldc-sizing', label: 'BLDC sizing', icon: 'precision_manufacturing' },
       { name: 'outbox', label: 'Outbox', icon: 'mail' },
     ],
   },
-  { title: 'Settings', items: [{ name: 'team', label: 'Team', icon: 'group' }] },
+  {
+    title: 'Settings',
+    items: [
+      { name: 'settings-price-book', label: 'Price book', icon: 'sell' },
+      { name: 'settings-assumptions', label: 'Assumptions', icon: 'tune' },
+      { name: 'settings-materials', label: 'Materials', icon: 'category' },
+      { name: 'team', label: 'Team', icon: 'group' },
+    ],
+  },
 ];
 
 /** The sections and items a role may open; empty sections are left out. */

@@ -59,6 +59,13 @@ const routes: RouteRecordRaw[] = [
         component: () => import('pages/IntakePage.vue'),
         meta: { roles: EDITORS },
       },
+      { path: 'quick-study', name: 'quick-study', component: () => import('pages/QuickStudyPage.vue') },
+      {
+        path: 'studies/:id(\\d+)',
+        name: 'study-detail',
+        redirect: (to) => ({ name: 'quick-study', query: { studyId: String(to.params.id) } }),
+      },
+      { path: 'screening', name: 'screening', component: () => import('pages/ScreeningPage.vue') },
       {
         path: 'bldc-sizing',
         name: 'bldc-sizing',
@@ -68,6 +75,9 @@ const routes: RouteRecordRaw[] = [
           designId: /^\d+$/.test(String(route.query.designId ?? '')) ? Number(route.query.designId) : null,
         }),
       },
+      { path: 'settings/price-book', name: 'settings-price-book', component: () => import('pages/SettingsPriceBookPage.vue') },
+      { path: 'settings/assumptions', name: 'settings-assumptions', component: () => import('pages/SettingsAssumptionsPage.vue') },
+      { path: 'settings/materials', name: 'settings-materials', component: () => import('pages/SettingsMaterialsPage.vue') },
       {
         path: 'settings/team',
         name: 'team',
