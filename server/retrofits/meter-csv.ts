@@ -113,22 +113,29 @@ export function unitIn(text: string): MeterUnit | null {
 
 /** A number written with a decimal point or comma and optional thousands marks, or null. */
 export function parseDecimal(raw: string): number | null {
-  let text = raw.replace(/[\s\u00a0']/g, '');
+  const text = raw.replace(/[\s\u00a0']/g, '');
   if (!/^[+-]?[\d.,]+$/.test(text) || !/\d/.test(text)) return null;
   const lastDot = text.lastIndexOf('.');
   const lastComma = text.lastIndexOf(',');
-  if (lastDot >= 0 && lastComma >= 0) {
-    const decimal = lastDot > lastComma ? '.' : ',';
-    const thousands = decimal === '.' ? ',' : '.';
-    text = text.split(thousands).join('');
-    if (decimal === ',') text = text.replace(',', '.');
-  } else if (lastComma >= 0) {
-    text = (text.match(/,/g) ?? []).length === 1 ? text.replace(',', '.') : text.split(',').join('');
-  } else if ((text.match(/\./g) ?? []).length > 1) {
-    text = text.split('.').join('');
-  }
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)$/.test(text)) return null;
-  const value = Number(text);
+  const commas = (text.match(/,/g) ?? []).length;
+  const dots = (text.match(/\./g) ?? []).length;
+  // The decimal mark: the last of two different marks, a single comma, or a single dot.
+  let decimal: '.' | ',' | null;
+  if (lastDot >= 0 && lastComma >= 0) decimal = lastDot > lastComma ? '.' : ',';
+  else if (commas === 1) decimal = ',';
+  else if (dots === 1) decimal = '.';
+  else decimal = null;
+  const thousands = decimal === '.' ? ',' : decimal === ',' ? '.' : commas > 0 ? ',' : '.';
+  if (decimal !== null && (decimal === '.' ? dots : commas) > 1) return null;
+  const [whole = '', fraction] = decimal === null ? [text] : text.split(decimal);
+  const sign = /^[+-]/.test(whole) ? whole[0]! : '';
+  const digits = sign === '' ? whole : whole.slice(1);
+  // Thousands marks only between groups of three digits ("1.234.567", "1,234.5").
+  if (digits.includes(thousands) && !new RegExp(`^\\d{1,3}(\\${thousands}\\d{3})+$`).test(digits)) return null;
+  if (fraction !== undefined && !/^\d*$/.test(fraction)) return null;
+  const plain = `${sign}${digits.split(thousands).join('')}${fraction !== undefined ? `.${fraction}` : ''}`;
+  if (!/^[+-]?(\d+\.?\d*|\.\d+)$/.test(plain)) return null;
+  const value = Number(plain);
   return Number.isFinite(value) ? value : null;
 }
 
@@ -175,6 +182,7 @@ export function wallIso(wallMs: number): string {
 
 interface GoodRow {
   line: number;
+  rawTimestamp: string;
   wallMs: number;
   value: number;
   variable: number | null;
@@ -291,7 +299,7 @@ export function parseMeterCsv(text: string, options: { unit?: MeterUnit | undefi
         rowOk = false;
       }
     }
-    if (rowOk && !('error' in timestamp)) good.push({ line, wallMs: timestamp.wallMs, value: numeric!, variable });
+    if (rowOk && !('error' in timestamp)) good.push({ line, rawTimestamp: fields[0]!.trim(), wallMs: timestamp.wallMs, value: numeric!, variable });
   }
   unit ??= cellUnit;
   if (unit === null) return result({ variableName });
@@ -306,7 +314,7 @@ export function parseMeterCsv(text: string, options: { unit?: MeterUnit | undefi
     const previous = ordered[ordered.length - 1];
     if (previous && previous.wallMs === row.wallMs) {
       const [first, later] = previous.line < row.line ? [previous, row] : [row, previous];
-      errors.push({ row: later.line, field: 'timestamp', value: wallIso(row.wallMs).replace('T', ' '), message: `duplicated timestamp (also on row ${first.line})` });
+      errors.push({ row: later.line, field: 'timestamp', value: later.rawTimestamp, message: `duplicated timestamp (also on row ${first.line})` });
       if (later === previous) ordered[ordered.length - 1] = row;
       continue;
     }
@@ -325,7 +333,7 @@ export function parseMeterCsv(text: string, options: { unit?: MeterUnit | undefi
     }
   }
   if (ordered.length < 2) {
-    errors.push({ row: header.line, field: 'rows', value: String(ordered.length), message: 'needs at least two readable readings' });
+    if (errors.length === 0) errors.push({ row: header.line, field: 'rows', value: String(ordered.length), message: 'needs at least two readable readings' });
     return result({ unit, variableName });
   }
 
