@@ -29,7 +29,7 @@ async function choose(wrapper: ReturnType<typeof mountPanel>, label: string) {
   await flushPromises();
 }
 
-describe('QuickStudyLoadEstimate', () => {
+describe('QuickStudyLoadEstimate', { timeout: 20_000 }, () => {
   it('estimates the load from measured input power with calc’s loss model, shows ±5 % and applies it', async () => {
     const wrapper = mountPanel();
     await type(wrapper, 'load-estimate-inputKw', '8.2');

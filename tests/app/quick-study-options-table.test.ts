@@ -31,7 +31,7 @@ const result = assess(
   { voltageV: 400, frequencyHz: 50, energyPricePerKwh: 0.16, demandChargePerKwMonth: 5, currency: 'EUR', co2KgPerKwh: 0.25 },
 );
 
-describe('QuickStudyOptionsTable', () => {
+describe('QuickStudyOptionsTable', { timeout: 20_000 }, () => {
   it('shows every option of calc’s result with calc’s own figures, formatted for the site’s currency', () => {
     const wrapper = mountWithApp(QuickStudyOptionsTable, createHarness('engineer'), { props: { result } });
     const rows = wrapper.findAll('[data-testid="study-options-table"] tbody tr');

@@ -73,7 +73,7 @@ function job(status: JobOutput['status'], progress: number): JobOutput {
   };
 }
 
-describe('ScreeningPage', () => {
+describe('ScreeningPage', { timeout: 20_000 }, () => {
   it('starts a screening with the budget, follows its progress to 100 % and shows the budget’s totals', async () => {
     const answers = [job('running', 0.4), job('done', 1)];
     const { calls } = fakeFetch({
