@@ -25,6 +25,7 @@ export const NAVIGATION: NavSection[] = [
       { name: 'sites', label: 'Sites', icon: 'factory' },
       { name: 'motors', label: 'Motor register', icon: 'settings_input_component' },
       { name: 'intake', label: 'Intake', icon: 'upload_file' },
+      { name: 'retrofits', label: 'Retrofit log', icon: 'construction' },
       { name: 'quick-study', label: 'Quick study', icon: 'query_stats' },
       { name: 'screening', label: 'Site screening', icon: 'playlist_add_check' },
       { name: 'bldc-sizing', label: 'BLDC sizing', icon: 'precision_manufacturing' },

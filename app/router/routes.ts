@@ -32,6 +32,13 @@ const routes: RouteRecordRaw[] = [
         props: (route) => ({ id: Number(route.params.id) }),
         meta: { roles: EDITORS },
       },
+      { path: 'retrofits', name: 'retrofits', component: () => import('pages/RetrofitLogPage.vue') },
+      {
+        path: 'retrofits/:id(\\d+)',
+        name: 'retrofit-detail',
+        component: () => import('pages/RetrofitLogDetailPage.vue'),
+        props: (route) => ({ id: Number(route.params.id) }),
+      },
       { path: 'motors', name: 'motors', component: () => import('pages/MotorsPage.vue') },
       {
         path: 'motors/new',
