@@ -33,8 +33,8 @@ export async function startTestApp(options: { signInAttemptsPerWindow?: number }
   const config = { ...loadConfig({ NODE_ENV: 'test', SESSION_SECRET: 'test-secret-test-secret' }), publicUrl: 'http://127.0.0.1:3000' };
   const mailer = createMailer({ catcherPort: catcher.port, from: config.mailFrom });
   const { app, close } = createApp({ config, databaseUrl: url, mailer, ...options });
-  // The job runner, polling often so screening tests finish quickly.
-  await startJobs({ pollMs: 100 });
+  // The job runner, polling every half second (jobs enqueued in this process start at once).
+  await startJobs({ pollMs: 500 });
   return {
     app,
     catcher,
