@@ -43,16 +43,14 @@ export interface AggregateEconomics {
 const round2OrNull = (value: number | null) => (value === null ? null : Math.round(value * 100) / 100);
 const round4OrNull = (value: number | null) => (value === null ? null : Math.round(value * 10000) / 10000);
 
-/**
- * The case's yearly cash flows: CF_0 = −Σ capex; CF_t = Σ_{lines with life ≥ t} S·(1+g)^(t−1).
- * Lines are grouped by life first (a case has a handful of distinct lives), so the escalation is
- * applied once per life and year, exactly as per line, and the money sums stay in decimal.js.
- *
- * @param lines the recommended retrofits (capex [currency], first-year saving [currency/yr], life [yr])
- * @param escalation yearly growth of the savings g [-] (energy-price escalation)
- * @returns [CF_0, …, CF_N] [currency], N the longest life; [0] when there is no line.
- */
-export function aggregateCashFlows(lines: readonly InvestmentLine[], escalation: number): number[] {
+/** The first-year saving of all lines of one life [currency/yr]. */
+export interface LifeSavings {
+  lifeYears: number;
+  savingsCost: number;
+}
+
+/** Σ capex and Σ first-year saving per life of the lines, in decimal.js (sumMoney). */
+export function sumLines(lines: readonly InvestmentLine[]): { capex: number; byLife: LifeSavings[] } {
   const savingsByLife = new Map<number, number[]>();
   const capexes = new Array<number>(lines.length);
   for (let index = 0; index < lines.length; index += 1) {
@@ -62,31 +60,49 @@ export function aggregateCashFlows(lines: readonly InvestmentLine[], escalation:
     if (!list) savingsByLife.set(line.lifeYears, (list = []));
     list.push(line.savingsCost);
   }
-  const firstYearByLife = [...savingsByLife].map(([life, amounts]) => ({ life, amount: new Decimal(sumMoney(amounts)) }));
-  const years = firstYearByLife.reduce((longest, entry) => Math.max(longest, entry.life), 0);
+  return { capex: sumMoney(capexes), byLife: [...savingsByLife].map(([lifeYears, amounts]) => ({ lifeYears, savingsCost: sumMoney(amounts) })) };
+}
+
+/**
+ * The case's yearly cash flows: CF_0 = −Σ capex; CF_t = Σ_{lives L ≥ t} S_L·(1+g)^(t−1), S_L the
+ * first-year saving of the lines of life L. Escalation multiplies every line of a life alike, so
+ * applying it to the life's sum gives the per-line sum exactly; the arithmetic is decimal.js.
+ *
+ * @param capex Σ capex [currency]; @param byLife first-year savings by life [currency/yr, yr]
+ * @param escalation yearly growth of the savings g [-] (energy-price escalation)
+ * @returns [CF_0, …, CF_N] [currency] rounded to cents, N the longest life; [−capex] with no life.
+ */
+export function cashFlowsFromSums(capex: number, byLife: readonly LifeSavings[], escalation: number): number[] {
+  const lives = byLife.map((entry) => ({ life: entry.lifeYears, amount: new Decimal(entry.savingsCost) }));
+  const years = lives.reduce((longest, entry) => Math.max(longest, entry.life), 0);
   const flows = new Array<number>(years + 1);
-  flows[0] = -sumMoney(capexes);
+  flows[0] = capex === 0 ? 0 : -capex;
   const growth = new Decimal(1).plus(escalation);
   let factor = new Decimal(1); // (1+g)^(t−1)
   for (let t = 1; t <= years; t += 1) {
     let flow = new Decimal(0);
-    for (const entry of firstYearByLife) if (entry.life >= t) flow = flow.plus(entry.amount.times(factor));
+    for (const entry of lives) if (entry.life >= t) flow = flow.plus(entry.amount.times(factor));
     flows[t] = flow.toDecimalPlaces(2, Decimal.ROUND_HALF_UP).toNumber();
     factor = factor.times(growth);
   }
   return flows;
 }
 
+/** The aggregate cash flows of the lines (see cashFlowsFromSums). */
+export function aggregateCashFlows(lines: readonly InvestmentLine[], escalation: number): number[] {
+  const { capex, byLife } = sumLines(lines);
+  return cashFlowsFromSums(capex, byLife, escalation);
+}
+
 /**
  * NPV, IRR and paybacks of the aggregate flows.
  *
- * @param lines as for aggregateCashFlows; @param rate discount rate i [-]; @param escalation g [-]
- * @returns simple payback = Σ capex / Σ first-year saving [yr]; discounted payback, NPV
+ * @param flows CF_0…CF_N of the case [currency]; @param rate discount rate i [-]
+ * @returns simple payback = Σ capex / Σ first-year saving [yr]; discounted payback [yr], NPV
  *   = Σ CF_t/(1+i)^t [currency], IRR [-] of the summed flows (calc/economics); N [yr].
  */
-export function aggregateEconomics(lines: readonly InvestmentLine[], rate: number, escalation: number): AggregateEconomics {
-  const flows = aggregateCashFlows(lines, escalation);
-  const capex = -flows[0]! || 0;
+export function economicsOfFlows(flows: number[], rate: number): AggregateEconomics {
+  const capex = flows[0] === 0 ? 0 : -flows[0]!;
   const firstYearSavings = flows[1] ?? 0;
   const hasInvestment = flows.length > 1;
   return {
@@ -99,6 +115,11 @@ export function aggregateEconomics(lines: readonly InvestmentLine[], rate: numbe
     irr: hasInvestment && capex > 0 && firstYearSavings > 0 ? round4OrNull(internalRateOfReturn(flows)) : null,
     analysisYears: flows.length - 1,
   };
+}
+
+/** economicsOfFlows of the lines' aggregate cash flows. */
+export function aggregateEconomics(lines: readonly InvestmentLine[], rate: number, escalation: number): AggregateEconomics {
+  return economicsOfFlows(aggregateCashFlows(lines, escalation), rate);
 }
 
 /**

@@ -3,7 +3,8 @@
  * calc's `assess`; its recommended option (highest positive NPV, else 'keep') becomes its item; the
  * items are summed by area (feeder), site and case, money in decimal.js through calc's `sumMoney`;
  * the case's economics come from its aggregate cash flows (server/cases/economics.ts); the
- * sensitivity re-runs assess with scaled inputs (server/cases/sensitivity.ts).
+ * sensitivity scales the parts of each result that the energy price and the hours scale
+ * (server/cases/sensitivity.ts).
  */
 import { assess, type Assumption, type AssessResult, type OptionResult } from '../../calc/assess/assess.js';
 import { DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_ENERGY_ESCALATION_PCT } from '../../calc/assess/defaults.js';
@@ -15,7 +16,7 @@ import type { CaseInputs } from '../models/business-case.js';
 import type { CaseAssumption, CaseBar, CaseGroup, CaseItem, CaseResults, CaseSummary, CaseTotals } from '../shared/case.js';
 import { aggregateEconomics, cumulativeCashFlow, type InvestmentLine } from './economics.js';
 import { effectivePriceBook, grossCapexAndRebate } from './rebates.js';
-import { caseSensitivity, type SensitivityEntry } from './sensitivity.js';
+import { caseSensitivity, type SensitivityLine } from './sensitivity.js';
 
 /** DESIGN.md's cautions, printed in every report. */
 export const CASE_CAUTIONS: readonly string[] = [
@@ -34,7 +35,6 @@ interface Assessed {
   item: CaseItem;
   result: AssessResult;
   option: OptionResult;
-  motor: MotorInput;
   siteIndex: number;
 }
 
@@ -222,7 +222,7 @@ export function computeCase(inputs: CaseInputs): { results: CaseResults; headlin
     try {
       const result = assess(motorRow.input as MotorInput, site.input as SiteInput, priceBook, assumptions, { detail: 'totals' });
       const option = result.options.find((candidate) => candidate.code === result.recommended.code) ?? result.baseline;
-      assessed.push({ item: itemOf(motorRow, site.name, result, option, book), result, option, motor: motorRow.input as MotorInput, siteIndex: index });
+      assessed.push({ item: itemOf(motorRow, site.name, result, option, book), result, option, siteIndex: index });
       assumptionLists.push(result.assumptions);
       if (option.code !== 'keep') assumptionLists.push(option.assumptions.map((a) => ({ ...a, what: `${option.label}: ${a.what}` })));
     } catch (error) {
@@ -282,11 +282,11 @@ export function computeCase(inputs: CaseInputs): { results: CaseResults; headlin
     energyEscalationPct: round(escalation * 100, 4),
   };
 
-  const sensitivityEntries: SensitivityEntry[] = recommended.map((entry) => ({
-    motor: entry.motor,
-    site: inputs.sites[entry.siteIndex]!.input as SiteInput,
-    siteIndex: entry.siteIndex,
-    optionCode: entry.option.code,
+  const sensitivityLines: SensitivityLine[] = recommended.map((entry) => ({
+    capex: entry.item.capex,
+    lifeYears: entry.item.lifeYears,
+    energyCostSaved: entry.result.baseline.energyCost - entry.option.energyCost,
+    demandCostSaved: entry.result.baseline.demandCost - entry.option.demandCost,
     annualHours: entry.result.motor.annualHours,
   }));
 
@@ -302,7 +302,7 @@ export function computeCase(inputs: CaseInputs): { results: CaseResults; headlin
       cashFlow: cumulativeCashFlow(economics.flows, rate),
       energyBySite: perSite.map((site) => ({ siteId: site.siteId, label: site.siteName, baselineKwh: site.baselineKwh, afterKwh: site.afterKwh })),
     },
-    sensitivity: caseSensitivity(sensitivityEntries, priceBook, assumptions, rate, escalation, economics),
+    sensitivity: caseSensitivity(sensitivityLines, rate, escalation, economics),
     assumptions: mergeAssumptions(assumptionLists),
     sources: inputs.sources,
     cautions: [...CASE_CAUTIONS],
