@@ -29,6 +29,7 @@ export const NAVIGATION: NavSection[] = [
       { name: 'quick-study', label: 'Quick study', icon: 'query_stats' },
       { name: 'screening', label: 'Site screening', icon: 'playlist_add_check' },
       { name: 'bldc-sizing', label: 'BLDC sizing', icon: 'precision_manufacturing' },
+      { name: 'cases', label: 'Business cases', icon: 'request_quote' },
       { name: 'outbox', label: 'Outbox', icon: 'mail' },
     ],
   },

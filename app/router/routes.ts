@@ -85,6 +85,13 @@ const routes: RouteRecordRaw[] = [
       { path: 'settings/price-book', name: 'settings-price-book', component: () => import('pages/SettingsPriceBookPage.vue') },
       { path: 'settings/assumptions', name: 'settings-assumptions', component: () => import('pages/SettingsAssumptionsPage.vue') },
       { path: 'settings/materials', name: 'settings-materials', component: () => import('pages/SettingsMaterialsPage.vue') },
+      { path: 'cases', name: 'cases', component: () => import('pages/CasesPage.vue') },
+      {
+        path: 'cases/:id(\\d+)',
+        name: 'case-detail',
+        component: () => import('pages/CaseReportPage.vue'),
+        props: (route) => ({ id: Number(route.params.id) }),
+      },
       {
         path: 'settings/team',
         name: 'team',

@@ -21,12 +21,12 @@ async function navTestIds(role: Role): Promise<string[]> {
 
 describe('MainLayout', () => {
   it('shows a viewer only Overview and Sites', async () => {
-    expect(await navTestIds('viewer')).toEqual(['nav-overview', 'nav-sites']);
+    expect(await navTestIds('viewer')).toEqual(['nav-overview', 'nav-sites', 'nav-cases']);
   });
 
   it('adds the Outbox for engineers and approvers', async () => {
-    expect(await navTestIds('engineer')).toEqual(['nav-overview', 'nav-sites', 'nav-outbox']);
-    expect(await navTestIds('approver')).toEqual(['nav-overview', 'nav-sites', 'nav-outbox']);
+    expect(await navTestIds('engineer')).toEqual(['nav-overview', 'nav-sites', 'nav-cases', 'nav-outbox']);
+    expect(await navTestIds('approver')).toEqual(['nav-overview', 'nav-sites', 'nav-cases', 'nav-outbox']);
   });
 
   it('shows an admin Settings › Team as well', async () => {
@@ -36,6 +36,7 @@ describe('MainLayout', () => {
     expect(wrapper.findAll('[data-testid^="nav-"]').map((item) => item.attributes('data-testid'))).toEqual([
       'nav-overview',
       'nav-sites',
+      'nav-cases',
       'nav-outbox',
       'nav-team',
     ]);
