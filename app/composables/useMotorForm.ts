@@ -1,7 +1,7 @@
 // The Motor form: load the motor (or start a new one on a site), validate with the server's own
 // schema, save with the version that was loaded, and say so plainly when someone saved first.
 import { computed, ref, watch } from 'vue';
-import { motorCreateBody, type MotorCreate, type MotorOutput } from 'shared/motor';
+import { motorCreateBody, REQUIRED_MOTOR_FIELDS, type MotorCreate, type MotorOutput } from 'shared/motor';
 import { draftToInput, emptyMotorDraft, motorToDraft, starterProfile, type MotorDraft } from 'components/motor-form';
 import { MOTOR_FIELD_LABELS } from 'components/motor-labels';
 import { ApiError } from 'src/api/client';
@@ -77,8 +77,15 @@ export function useMotorForm(id: number | null, initialSiteId: number | null = n
   }
 
   async function save(): Promise<SaveOutcome> {
-    const input = form.validate(draftToInput(draft.value)) as MotorCreate | null;
-    if (!input) return { invalid: true };
+    const raw = draftToInput(draft.value);
+    const input = form.validate(raw) as MotorCreate | null;
+    if (!input) {
+      // The shared schema says "must be a number" for a blank number; on a form, blank means missing.
+      for (const field of ['siteId', ...REQUIRED_MOTOR_FIELDS]) {
+        if (raw[field] === undefined && form.hasError(field)) form.errors.value[field] = `${MOTOR_FORM_LABELS[field] ?? field} is required`;
+      }
+      return { invalid: true };
+    }
     saving.value = true;
     try {
       const saved =
