@@ -18,7 +18,7 @@ import { AppError, conflict } from '../lib/errors.js';
 import { orderFrom, pageWindow } from '../lib/lists.js';
 import type { Mailer } from '../lib/mail.js';
 import type { Tenant } from '../lib/tenant.js';
-import { BusinessCase, CaseSend, Motor, Organization, Retrofit, Site, User } from '../models/index.js';
+import { BusinessCase, CaseSend, Motor, Organization, Retrofit, RetrofitEvent, Site, User } from '../models/index.js';
 import type { ListResult } from '../shared/common.js';
 import type { CaseCreate, CaseDecided, CaseDecisionInput, CaseListQuery, CaseOutput, CaseSend as CaseSendInput, CaseSent, CaseSummary } from '../shared/case.js';
 import { registerInputs } from './inputs.js';
@@ -211,7 +211,7 @@ export async function sendCase(tenant: Tenant, id: number, body: CaseSendInput, 
 }
 
 /** The Retrofit log after an approval (see the module comment). */
-async function approveRetrofits(tenant: Tenant, row: BusinessCase, transaction: Transaction): Promise<{ created: number; approved: number }> {
+async function approveRetrofits(tenant: Tenant, row: BusinessCase, comment: string, transaction: Transaction): Promise<{ created: number; approved: number }> {
   const items = row.results.items.filter((item) => item.optionCode !== 'keep');
   if (items.length === 0) return { created: 0, approved: 0 };
   const motorIds = items.map((item) => item.motorId);
@@ -227,6 +227,9 @@ async function approveRetrofits(tenant: Tenant, row: BusinessCase, transaction: 
   }
   let created = 0;
   let approved = 0;
+  const now = new Date();
+  const note = `Approved with the ${caseName(row)}${comment ? `: ${comment}` : ''}`;
+  const events: Array<CreationAttributes<RetrofitEvent>> = [];
   const toCreate: Array<CreationAttributes<Retrofit>> = [];
   for (const item of items) {
     if (!existingMotors.has(item.motorId)) continue;
@@ -236,16 +239,21 @@ async function approveRetrofits(tenant: Tenant, row: BusinessCase, transaction: 
     const proposed = list.filter((retrofit) => retrofit.status === 'proposed');
     if (proposed.length > 0) {
       for (const retrofit of proposed) {
-        await retrofit.update({ ...figures, status: 'approved', version: retrofit.version + 1 }, { transaction });
+        await retrofit.update({ ...figures, status: 'approved', statusChangedAt: now, version: retrofit.version + 1 }, { transaction });
+        events.push({ organizationId: tenant.organizationId, retrofitId: retrofit.id, fromStatus: 'proposed', toStatus: 'approved', userId: tenant.user.id, comment: note });
         approved += 1;
       }
     } else {
       // Source 'case' is added to the enum by migration 20261201160200.
-      toCreate.push({ organizationId: tenant.organizationId, motorId: item.motorId, ...figures, status: 'approved', source: 'case', jobId: null, createdBy: tenant.user.id });
+      toCreate.push({ organizationId: tenant.organizationId, motorId: item.motorId, ...figures, status: 'approved', statusChangedAt: now, source: 'case', jobId: null, createdBy: tenant.user.id });
       created += 1;
     }
   }
-  if (toCreate.length > 0) await Retrofit.bulkCreate(toCreate, { transaction });
+  if (toCreate.length > 0) {
+    const inserted = await Retrofit.bulkCreate(toCreate, { transaction, returning: ['id'] });
+    for (const retrofit of inserted) events.push({ organizationId: tenant.organizationId, retrofitId: retrofit.id, fromStatus: null, toStatus: 'approved', userId: tenant.user.id, comment: note });
+  }
+  if (events.length > 0) await RetrofitEvent.bulkCreate(events, { transaction });
   return { created, approved };
 }
 
@@ -256,7 +264,7 @@ export async function decideCase(tenant: Tenant, id: number, body: CaseDecisionI
     if (row.status === 'approved' || row.status === 'rejected') {
       throw conflict('already-decided', `This business case was already ${row.status} on ${row.decidedAt?.toISOString().slice(0, 10) ?? '?'}; generate a new version to decide again.`);
     }
-    const retrofits = body.decision === 'approved' ? await approveRetrofits(tenant, row, transaction) : { created: 0, approved: 0 };
+    const retrofits = body.decision === 'approved' ? await approveRetrofits(tenant, row, body.comment, transaction) : { created: 0, approved: 0 };
     await row.update({ status: body.decision, decidedBy: tenant.user.id, decidedAt: new Date(), decisionComment: body.comment || null }, { transaction });
     await tenant.audit(body.decision === 'approved' ? 'approve' : 'reject', 'business-case', row.id, { comment: body.comment, ...retrofits }, transaction);
     return { row, retrofits };

@@ -3,10 +3,16 @@ import { Motor, Organization, Site } from '../models/index.js';
 import { route, type RouteSpec } from '../lib/routing.js';
 import type { Tenant } from '../lib/tenant.js';
 import { overviewResponse, type OverviewResponse } from '../shared/overview.js';
+import { latestCases } from '../cases/service.js';
+import { overviewFigures } from './figures.js';
 
 const round = (value: number) => Math.round(value * 100) / 100;
 
-/** Real counts for the Overview: sites, motors in service, installed kW, by site and application. */
+/**
+ * Real counts for the Overview: sites, motors in service, installed kW, by site and application;
+ * energy today and savings identified, approved, installed and verified (server/overview/figures.ts);
+ * the latest business cases.
+ */
 async function overview(tenant: Tenant): Promise<OverviewResponse> {
   const organization = await Organization.findByPk(tenant.organizationId);
   const sites = await tenant.findAll(Site, { where: { archivedAt: null }, order: [['name', 'ASC']] });
@@ -25,9 +31,17 @@ async function overview(tenant: Tenant): Promise<OverviewResponse> {
     raw: true,
   })) as unknown as Array<{ application: string; motors: string | number; kw: string | number }>;
   const siteTotals = new Map(bySite.map((row) => [row.siteId, row]));
+  const [figures, cases] = await Promise.all([overviewFigures(tenant.organizationId, sites), latestCases(tenant, 5)]);
   const siteRows = sites.map((site) => {
     const totals = siteTotals.get(site.id);
-    return { id: site.id, name: site.name, motors: Number(totals?.motors ?? 0), installedKw: round(Number(totals?.kw ?? 0)) };
+    const siteFigures = figures.bySite.get(site.id);
+    return {
+      id: site.id,
+      name: site.name,
+      motors: Number(totals?.motors ?? 0),
+      installedKw: round(Number(totals?.kw ?? 0)),
+      ...(siteFigures ? { figures: siteFigures.figures, latestCaseId: siteFigures.latestCaseId } : {}),
+    };
   });
   return {
     organization: { id: tenant.organizationId, name: organization?.name ?? '' },
@@ -38,6 +52,8 @@ async function overview(tenant: Tenant): Promise<OverviewResponse> {
     },
     sites: siteRows,
     byApplication: byApplication.map((row) => ({ application: row.application, motors: Number(row.motors), installedKw: round(Number(row.kw)) })),
+    figures: figures.organization,
+    latestCases: cases,
   };
 }
 
