@@ -18,6 +18,9 @@ let uploadDir: string;
 
 type Cell = string | number | null;
 
+/** The 200,000-row file and the 5,000-row commit take seconds on an idle machine, much longer on a loaded one. */
+const HEAVY_TEST_MS = 180_000;
+
 function xlsxOf(rows: Cell[][], sheetName = 'Motors'): Buffer {
   const workbook = XLSX.utils.book_new();
   XLSX.utils.book_append_sheet(workbook, XLSX.utils.aoa_to_sheet(rows), sheetName);
@@ -276,7 +279,7 @@ describe('intake: hostile files leave the database unchanged', () => {
   it('refuses a sheet of 200,000 rows with 413', async () => {
     const rows: Cell[][] = [['Tag', 'Power'], ...Array.from({ length: 200_000 }, (_, index) => [`T${index}`, (index % 90) + 1])];
     await expectRefused(xlsxOf(rows), 'huge.xlsx', 413, 'The sheet has 200001 rows; at most 100000 data rows can be imported at once. Split the file.');
-  });
+   }, HEAVY_TEST_MS);
 
   it('refuses a workbook whose shared-strings table expands beyond the limit, before parsing it', async () => {
     const workbook = XLSX.utils.book_new();
@@ -344,7 +347,7 @@ describe('intake: atomic commit', () => {
     const retried = await session.post(`/api/imports/${big.body.id}/commit`).expect(200);
     expect(retried.body).toEqual({ created: 4700, updated: 300, skipped: 0 });
     expect(await Motor.count({ where: { siteId: atomicSite.id } })).toBe(5000);
-  });
+   }, HEAVY_TEST_MS);
 
   it('refuses to commit a batch with no valid row, and to commit twice', async () => {
     const preview = await upload(session, xlsxOf([['Tag', 'Power', 'Poles'], ['A-1', 'lots', 4]]), site.id);
