@@ -69,7 +69,16 @@ export function useBldcDesignWorker() {
         reject = null;
         fail(new BldcWorkerError(event.message || 'The design worker failed.', null));
       };
-      current.postMessage({ id, ...request } as DesignWorkerRequest);
+      try {
+        // Plain data only: Vue's reactive proxies cannot cross to a worker.
+        current.postMessage(JSON.parse(JSON.stringify({ id, ...request })) as DesignWorkerRequest);
+      } catch (error) {
+        current.terminate();
+        if (worker === current) worker = null;
+        running.value = false;
+        reject = null;
+        fail(new BldcWorkerError(error instanceof Error ? error.message : String(error), null));
+      }
     });
   }
 
@@ -121,7 +130,12 @@ export function useSimulationWorker() {
         else settle?.(null, new BldcWorkerError(message.message, message.field));
       };
       current.onerror = (event) => settle?.(null, new BldcWorkerError(event.message || 'The simulation worker failed.', null));
-      current.postMessage({ type: 'start', input } satisfies WorkerRequest);
+      try {
+        // Plain data only: Vue's reactive proxies cannot cross to a worker.
+        current.postMessage({ type: 'start', input: JSON.parse(JSON.stringify(input)) as unknown } satisfies WorkerRequest);
+      } catch (error) {
+        settle(null, new BldcWorkerError(error instanceof Error ? error.message : String(error), null));
+      }
     });
   }
 

@@ -176,6 +176,7 @@ describe('BldcSizingPage', { timeout: 30_000 }, () => {
     expect(wrapper.get('[data-testid="bldc-readonly-note"]').text()).toContain('Read only');
     expect(wrapper.get('[data-testid="bldc-feasibility-verdict"]').text()).toBe('Feasible design');
     expect(wrapper.get('[data-testid="bldc-key-slots-poles"]').text()).toBe('18 / 12');
+    expect(wrapper.findAll('[data-testid="bldc-winding-row"]')).toHaveLength(36);
     expect(wrapper.find('[data-testid="bldc-use-design"]').exists()).toBe(false);
     expect(wrapper.get('[data-testid="bldc-cautions"]').text()).toContain('pacemakers');
   });
