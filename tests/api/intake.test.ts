@@ -33,12 +33,6 @@ function upload(agent: typeof session, file: Buffer, siteId: number, fileName = 
   return request.attach('file', file, fileName);
 }
 
-const binaryParser = (res: NodeJS.ReadableStream, callback: (error: Error | null, body: Buffer) => void) => {
-  const chunks: Buffer[] = [];
-  res.on('data', (chunk: Buffer) => chunks.push(chunk));
-  res.on('end', () => callback(null, Buffer.concat(chunks)));
-};
-
 /** Everything an import could have changed, for "the database is unchanged" checks. */
 async function snapshot(organizationId: number) {
   const [motors] = await database().query(`SELECT * FROM motors WHERE organization_id = ${organizationId} ORDER BY id`);
@@ -385,7 +379,12 @@ describe('intake: roles, isolation, template', () => {
   });
 
   it('serves a template with every field and its unit', async () => {
-    const response = await session.get('/api/imports/template').buffer(true).parse(binaryParser).expect(200);
+    const response = await session.get('/api/imports/template').buffer(true).parse((res, callback) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (chunk: Buffer) => chunks.push(chunk));
+      res.on('end', () => callback(null, Buffer.concat(chunks)));
+    });
+    expect(response.status).toBe(200);
     const workbook = XLSX.read(response.body as Buffer, { type: 'buffer' });
     expect(workbook.SheetNames).toEqual(['Motors', 'Fields']);
     const header = XLSX.utils.sheet_to_json<Cell[]>(workbook.Sheets.Motors!, { header: 1 })[0];
