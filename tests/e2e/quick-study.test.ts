@@ -9,7 +9,11 @@ let browser: Browser;
 beforeEach(async () => {
   browser = await launchBrowser({ width: 1280, height: 900 });
 });
-afterEach(async () => browser.close());
+afterEach(async (context) => {
+  // A failing run keeps a picture of where it stood.
+  if (context.task.result?.state === 'fail') await screenshot(browser.page, `failed-${context.task.name.slice(0, 40).replace(/\W+/g, '-')}`).catch(() => {});
+  await browser.close();
+});
 
 /** GET an API path with the page's session. */
 async function apiGet<T>(page: Page, path: string): Promise<T> {
@@ -41,7 +45,7 @@ async function expectTableEquals(page: Page, expected: AssessResult): Promise<vo
 /** Each chart draws its series (ApexCharts renders one `.apexcharts-series` group per series). */
 async function expectChartSeries(page: Page, testId: string, count: number): Promise<void> {
   const series = page.getByTestId(testId).locator('.apexcharts-series');
-  await expect.poll(() => series.count(), { timeout: 15_000 }).toBe(count);
+  await expect.poll(() => series.count(), { timeout: 30_000 }).toBe(count);
   // A drawn line or bar path in each series.
   const paths = await series.evaluateAll((groups) => groups.map((group) => group.querySelectorAll('path').length));
   for (const drawn of paths) expect(drawn).toBeGreaterThan(0);
@@ -63,7 +67,7 @@ describe('Quick study', () => {
     expect(input.motor.controlMethod).toBe('outlet-damper');
     const expected = assess(input.motor, input.site, input.priceBook, input.assumptions);
 
-    await expect.poll(() => page.getByTestId('study-source').innerText()).toContain(motor.tag);
+    await expect.poll(() => page.getByTestId('study-source').innerText(), { timeout: 30_000 }).toContain(motor.tag);
     await expectTableEquals(page, expected);
     expect(await page.getByTestId('study-assumptions').innerText()).toContain(expected.assumptions[0]!.what);
     expect(await page.getByTestId('study-cautions').innerText()).toContain('permanent-magnet rotor is hazardous');
@@ -85,14 +89,14 @@ describe('Quick study', () => {
     const stored = (await (await saved).json()) as AssessResult & { id: number };
     expect(stored.options).toEqual(expected.options);
     await page.waitForURL(/studyId=\d+/);
-    await expect.poll(() => page.getByTestId('study-stored-check').innerText()).toContain('equals the live computation');
+    await expect.poll(() => page.getByTestId('study-stored-check').innerText(), { timeout: 30_000 }).toContain('equals the live computation');
     await expectTableEquals(page, expected);
     expect(await page.getByTestId('study-saved-list').innerText()).toContain(`E2E ${motor.tag}`);
 
     const path = await screenshot(page, 'quick-study-register-fan');
     expect(existsSync(path)).toBe(true);
     expect(browser.problems.filter((problem) => /Content Security Policy|Refused to/.test(problem))).toEqual([]);
-  });
+  }, 240_000);
 
   it('an engineer enters a fan from scratch and the figures follow calc live', async () => {
     const { page } = browser;
@@ -112,8 +116,8 @@ describe('Quick study', () => {
       ...(settings.assumptions.stored ? { assumptions: settings.assumptions.stored } : {}),
     });
     const expected = assess(input.motor, input.site, input.priceBook, input.assumptions);
-    await expect.poll(async () => page.getByTestId('study-options-table').locator('tr[data-code="keep"] td[data-field="annualKwh"]').getAttribute('data-value')).toBe(String(expected.baseline.annualKwh));
+    await expect.poll(async () => page.getByTestId('study-options-table').locator('tr[data-code="keep"] td[data-field="annualKwh"]').getAttribute('data-value'), { timeout: 30_000 }).toBe(String(expected.baseline.annualKwh));
     await expectTableEquals(page, expected);
     await screenshot(page, 'quick-study-scratch');
-  });
+  }, 240_000);
 });

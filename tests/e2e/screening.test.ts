@@ -1,9 +1,24 @@
 import { existsSync } from 'node:fs';
 import type { Page } from 'playwright-core';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { Sequelize } from 'sequelize';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
 import { sumMoney } from '../../calc/economics/money.js';
+import { startJobs, stopJobs } from '../../server/jobs/index.js';
+import { connectDatabase } from '../../server/lib/database.js';
 import type { JobOutput, ScreeningResult } from '../../server/shared/screening.js';
 import { baseUrl, field, launchBrowser, screenshot, signInThroughPage, type Browser } from '../support/browser.js';
+
+// The e2e server runs no job runner; this process plays a second app instance that takes the
+// screening job from the shared PostgreSQL queue (as DESIGN.md's several instances would).
+let sequelize: Sequelize;
+beforeAll(async () => {
+  sequelize = connectDatabase(inject('e2eDatabaseUrl'), { poolMax: 4 });
+  await startJobs({ pollMs: 300 });
+});
+afterAll(async () => {
+  await stopJobs();
+  await sequelize.close();
+});
 
 let browser: Browser;
 beforeEach(async () => {
@@ -30,7 +45,7 @@ describe('Site screening', () => {
     await page.getByTestId('screening-progress').waitFor();
     await page.waitForURL(/jobId=\d+/);
     const jobId = Number(new URL(page.url()).searchParams.get('jobId'));
-    await expect.poll(() => page.getByTestId('screening-progress-value').innerText(), { timeout: 60_000 }).toBe('100 %');
+    await expect.poll(() => page.getByTestId('screening-progress-value').innerText(), { timeout: 120_000 }).toBe('100 %');
     await page.getByTestId('screening-totals').waitFor();
 
     const job = await apiGet<JobOutput>(page, `/api/jobs/${jobId}`);
@@ -59,10 +74,10 @@ describe('Site screening', () => {
     expect(answer.status()).toBe(201);
     const created = (await answer.json()) as { created: number; alreadyProposed: number };
     expect(created.created + created.alreadyProposed).toBe(selected.filter((row) => row.optionCode !== null).length);
-    await expect.poll(() => page.locator('.q-notification').innerText()).toContain('retrofit proposal');
+    await expect.poll(() => page.locator('.q-notification').innerText(), { timeout: 20_000 }).toContain('retrofit proposal');
 
     const path = await screenshot(page, 'screening-dairy-budget');
     expect(existsSync(path)).toBe(true);
     expect(browser.problems.filter((problem) => /Content Security Policy|Refused to/.test(problem))).toEqual([]);
-  });
+  }, 240_000);
 });
