@@ -20,26 +20,32 @@ async function navTestIds(role: Role): Promise<string[]> {
 }
 
 describe('MainLayout', () => {
-  it('shows a viewer only Overview and Sites', async () => {
-    expect(await navTestIds('viewer')).toEqual(['nav-overview', 'nav-sites', 'nav-cases']);
+  // Every role reads the register, the reports and the settings; only editors see Intake; only admins the Team.
+  it('shows a viewer the reading screens and none of the editing or admin ones', async () => {
+    const ids = await navTestIds('viewer');
+    expect(ids).toEqual(expect.arrayContaining(['nav-overview', 'nav-sites', 'nav-motors', 'nav-cases', 'nav-retrofits']));
+    for (const hidden of ['nav-intake', 'nav-outbox', 'nav-team']) expect(ids).not.toContain(hidden);
   });
 
-  it('adds the Outbox for engineers and approvers', async () => {
-    expect(await navTestIds('engineer')).toEqual(['nav-overview', 'nav-sites', 'nav-cases', 'nav-outbox']);
-    expect(await navTestIds('approver')).toEqual(['nav-overview', 'nav-sites', 'nav-cases', 'nav-outbox']);
+  it('adds Intake for engineers, the Outbox for engineers and approvers, and keeps Team from both', async () => {
+    const engineer = await navTestIds('engineer');
+    expect(engineer).toEqual(expect.arrayContaining(['nav-intake', 'nav-outbox', 'nav-quick-study', 'nav-bldc-sizing']));
+    expect(engineer).not.toContain('nav-team');
+    const approver = await navTestIds('approver');
+    expect(approver).toContain('nav-outbox');
+    expect(approver).not.toContain('nav-intake');
+    expect(approver).not.toContain('nav-team');
   });
 
-  it('shows an admin Settings › Team as well', async () => {
+  it('shows an admin Settings › Team as well, in the order of the screen list', async () => {
     const harness = createHarness('admin');
     const wrapper = mountWithApp(MainLayout, harness, { global: { stubs: { RouterView: true } } });
     await flushPromises();
-    expect(wrapper.findAll('[data-testid^="nav-"]').map((item) => item.attributes('data-testid'))).toEqual([
-      'nav-overview',
-      'nav-sites',
-      'nav-cases',
-      'nav-outbox',
-      'nav-team',
-    ]);
+    const ids = wrapper.findAll('[data-testid^="nav-"]').map((item) => item.attributes('data-testid'));
+    expect(ids).toContain('nav-team');
+    expect(ids.indexOf('nav-overview')).toBe(0);
+    expect(ids.indexOf('nav-motors')).toBeLessThan(ids.indexOf('nav-intake'));
+    expect(ids.indexOf('nav-cases')).toBeLessThan(ids.indexOf('nav-retrofits'));
     expect(wrapper.text()).toContain('Settings');
   });
 
