@@ -42,7 +42,7 @@ describe('BLDC sizing', () => {
     const motor = await demoMotor(page);
 
     await page.goto(`${baseUrl()}/bldc-sizing?motorId=${motor.id}`);
-    await expect.poll(() => field(page, 'bldc-input-ratedPowerKw').inputValue()).toBe('11');
+    await expect.poll(() => field(page, 'bldc-input-ratedPowerKw').inputValue(), { timeout: 30_000 }).toBe('11');
     expect(await page.getByTestId('bldc-subtitle').innerText()).toContain(motor.tag);
     await page.getByTestId('bldc-design').click();
     await page.getByTestId('bldc-shown-badge').filter({ hasText: 'Saved design #' }).waitFor({ timeout: 60_000 });
@@ -98,7 +98,7 @@ describe('BLDC sizing', () => {
     // Charts: each renders its series.
     await page.getByTestId('bldc-tab-performance').click();
     const seriesIn = (testid: string) => page.locator(`[data-testid="${testid}"] .apexcharts-series`);
-    await expect.poll(() => seriesIn('bldc-chart-airgap').count(), { timeout: 20_000 }).toBe(1 + 4);
+    await expect.poll(() => seriesIn('bldc-chart-airgap').count(), { timeout: 30_000 }).toBe(1 + 4);
     await expect.poll(() => seriesIn('bldc-chart-efficiency').count(), { timeout: 20_000 }).toBe(2);
     await expect.poll(() => page.locator('[data-testid="bldc-efficiency-map"] .apexcharts-heatmap-series, [data-testid="bldc-efficiency-map"] .apexcharts-heatmap .apexcharts-series').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(16);
     expect(await page.locator('[data-testid="bldc-chart-airgap"]').innerText()).toContain('Line A–B');
