@@ -3,7 +3,7 @@
 import type { ApexOptions } from 'apexcharts';
 import type { CaseBar, CaseCharts, CaseSensitivity, CaseTotals, SensitivityPoint } from 'shared/case';
 import { formatNumber } from 'src/utils/format';
-import { formatMoney, formatYears } from './case-format';
+import { formatMoney, formatMoneyShort, formatYears } from './case-format';
 
 /** Colours of the tornado's two sides: factor lowered (copper) and raised (teal). */
 const LOWER_COLOUR = '#c9822b';
@@ -111,7 +111,7 @@ export function cashFlowChart(charts: CaseCharts, totals: CaseTotals): { series:
             x: payback,
             y: 0,
             marker: { size: 6, fillColor: '#c9822b', strokeColor: '#fff' },
-            label: { text: `Pays back after ${formatYears(payback)}`, borderColor: '#c9822b', offsetY: -6 },
+            label: { text: `Pays back after ${formatYears(payback)}`, borderColor: '#c9822b', offsetY: -6, offsetX: 60 },
           },
         ]
       : [];
@@ -125,7 +125,7 @@ export function cashFlowChart(charts: CaseCharts, totals: CaseTotals): { series:
       title: { text: 'Year' },
       labels: { formatter: (value: string) => formatNumber(Number(value)) },
     },
-    yaxis: { title: { text: totals.currency }, labels: { formatter: (value: number) => money(value) } },
+    yaxis: { title: { text: totals.currency }, labels: { formatter: (value: number) => formatMoneyShort(value, totals.currency) } },
     annotations: { yaxis: [{ y: 0, borderColor: '#66706e', strokeDashArray: 0 }], points },
     legend: { position: 'bottom' },
     tooltip: { shared: true, x: { formatter: (value: number) => `Year ${value}` }, y: { formatter: (value: number) => money(value) } },
@@ -134,16 +134,23 @@ export function cashFlowChart(charts: CaseCharts, totals: CaseTotals): { series:
 }
 
 /** Savings per year as horizontal bars (by site, application or option), largest first. */
-export function savingsBarsChart(bars: CaseBar[], currency: string, id: string): { series: ApexAxisChartSeries; options: ApexOptions } {
+export function savingsBarsChart(
+  bars: CaseBar[],
+  currency: string,
+  id: string,
+  labelOf: (bar: CaseBar) => string = (bar) => bar.label,
+): { series: ApexAxisChartSeries; options: ApexOptions } {
   const rows = [...bars].sort((a, b) => b.savingsCost - a.savingsCost);
   const series: ApexAxisChartSeries = [{ name: `Savings (${currency}/yr)`, data: rows.map((row) => Math.round(row.savingsCost)) }];
   const options: ApexOptions = {
     chart: { id },
     plotOptions: { bar: { horizontal: true, borderRadius: 3, barHeight: '60%' } },
     xaxis: {
-      categories: rows.map((row) => row.label),
-      labels: { formatter: (value: string) => formatMoney(Number(value), currency, 0) },
+      categories: rows.map(labelOf),
+      tickAmount: 3,
+      labels: { formatter: (value: string) => formatMoneyShort(Number(value), currency) },
     },
+    yaxis: { labels: { maxWidth: 170 } },
     tooltip: {
       y: {
         formatter: (value: number, context?: { dataPointIndex: number }) => {

@@ -37,7 +37,21 @@ export function formatCo2(kg: number): string {
 /** A payback time; null means the investment does not pay back within its life. */
 export function formatYears(years: number | null, never = 'Does not pay back'): string {
   if (years === null || !Number.isFinite(years)) return never;
-  return `${formatNumber(years, 1)} yr`;
+  return `${new Intl.NumberFormat(LOCALE, { minimumFractionDigits: 1, maximumFractionDigits: 1 }).format(years)} yr`;
+}
+
+/** A number with exactly `digits` decimals, so that a column of figures lines up ("517.0"). */
+export function formatFixed(value: number, digits = 1): string {
+  return new Intl.NumberFormat(LOCALE, { minimumFractionDigits: digits, maximumFractionDigits: digits }).format(value);
+}
+
+/** Short money for chart axes ("€150K", "€1.2M"). */
+export function formatMoneyShort(value: number, currency: string): string {
+  try {
+    return new Intl.NumberFormat(LOCALE, { style: 'currency', currency, notation: 'compact', maximumFractionDigits: 1 }).format(value);
+  } catch {
+    return `${new Intl.NumberFormat(LOCALE, { notation: 'compact', maximumFractionDigits: 1 }).format(value)} ${currency}`;
+  }
 }
 
 /** A rate given as a fraction (0.25 → "25.0 %"); null → "—". */

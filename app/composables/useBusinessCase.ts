@@ -28,7 +28,7 @@ export function useCasePermissions(current: Ref<Pick<CaseSummary, 'status'> | nu
   const canDecide = computed(() => isDecider.value && current.value !== null && isOpen(current.value));
   /** Why the decision buttons are disabled, in a sentence; '' when they are enabled. */
   const decisionBlockedReason = computed(() => {
-    if (!isDecider.value) return 'Only an approver can approve or reject a business case.';
+    if (!isDecider.value) return 'An approver of the organisation approves or rejects it here; the buttons show for that role only.';
     if (current.value && !isOpen(current.value)) return 'A decision has been recorded on this version.';
     return '';
   });

@@ -21,6 +21,7 @@ describe('business-case formatting', () => {
   it('says when an investment does not pay back, and shows an IRR as a percentage', () => {
     expect(formatYears(1.274)).toBe('1.3 yr');
     expect(formatYears(null)).toBe('Does not pay back');
+    expect(formatYears(1)).toBe('1.0 yr');
     expect(formatRate(0.1234)).toBe('12.3 %');
     expect(formatRate(null)).toBe('—');
   });
