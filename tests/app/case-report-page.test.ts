@@ -38,7 +38,7 @@ describe('CaseReportPage', () => {
     expect(wrapper.get(testid('case-headline-npv')).text()).toBe('€62,500');
     expect(wrapper.get(testid('case-headline-motors')).text()).toBe('2 of 3');
     expect(wrapper.get(testid('case-sites-table')).text()).toContain('176');
-    expect(wrapper.get(testid('case-sites-table')).text()).toContain('43 (24.4 %)');
+    expect(wrapper.get(testid('case-sites-table')).text()).toContain('43.0 (24.4 %)');
     expect(wrapper.get(testid('case-areas-table')).text()).toContain('Cooling');
     // The recommended list leaves out the motor that is kept, until asked.
     const items = wrapper.get(testid('case-items-table'));
