@@ -32,11 +32,18 @@ const routes: RouteRecordRaw[] = [
         props: (route) => ({ id: Number(route.params.id) }),
         meta: { roles: EDITORS },
       },
+      { path: 'cases', name: 'cases', component: () => import('pages/CasesPage.vue') },
       { path: 'retrofits', name: 'retrofits', component: () => import('pages/RetrofitLogPage.vue') },
       {
         path: 'retrofits/:id(\\d+)',
         name: 'retrofit-detail',
         component: () => import('pages/RetrofitLogDetailPage.vue'),
+        props: (route) => ({ id: Number(route.params.id) }),
+      },
+      {
+        path: 'cases/:id(\\d+)',
+        name: 'case-detail',
+        component: () => import('pages/CaseReportPage.vue'),
         props: (route) => ({ id: Number(route.params.id) }),
       },
       { path: 'motors', name: 'motors', component: () => import('pages/MotorsPage.vue') },
@@ -85,13 +92,6 @@ const routes: RouteRecordRaw[] = [
       { path: 'settings/price-book', name: 'settings-price-book', component: () => import('pages/SettingsPriceBookPage.vue') },
       { path: 'settings/assumptions', name: 'settings-assumptions', component: () => import('pages/SettingsAssumptionsPage.vue') },
       { path: 'settings/materials', name: 'settings-materials', component: () => import('pages/SettingsMaterialsPage.vue') },
-      { path: 'cases', name: 'cases', component: () => import('pages/CasesPage.vue') },
-      {
-        path: 'cases/:id(\\d+)',
-        name: 'case-detail',
-        component: () => import('pages/CaseReportPage.vue'),
-        props: (route) => ({ id: Number(route.params.id) }),
-      },
       {
         path: 'settings/team',
         name: 'team',
