@@ -134,3 +134,46 @@ export function attachmentHeader(name: string): string {
   const ascii = name.replace(/[^\x20-\x7e]/g, '_').replace(/["\\]/g, '_');
   return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`;
 }
+
+/** The file types a motor or a retrofit may carry: photos and PDF documents. */
+export const ATTACHABLE_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const;
+export type AttachableType = (typeof ATTACHABLE_TYPES)[number];
+
+/**
+ * The type of an uploaded attachment, recognised from its bytes (never from its name): 415 for
+ * anything but an image or a PDF, 400 when `imageOnly` names a kind that must be a picture.
+ */
+export function attachableType(buffer: Buffer, imageOnly?: { kindLabel: string }): AttachableType {
+  const type = sniffType(buffer);
+  if (!(ATTACHABLE_TYPES as readonly string[]).includes(type ?? '')) {
+    throw new AppError('unsupported-file', 'file: only JPEG, PNG or WebP images and PDF documents can be attached', 415, [
+      { field: 'file', message: 'must be an image or a PDF' },
+    ]);
+  }
+  if (imageOnly && type === 'application/pdf') {
+    throw new AppError('invalid-input', `file: ${imageOnly.kindLabel} must be an image`, 400, [{ field: 'file', message: 'must be an image' }]);
+  }
+  return type as AttachableType;
+}
+
+/** Stores the bytes, then records them with `record`; if recording fails the stored bytes are removed. */
+export async function storeThenRecord<T>(content: Buffer, record: (stored: StoredFile) => Promise<T>): Promise<T> {
+  const stored = await storeFile(content);
+  try {
+    return await record(stored);
+  } catch (error) {
+    await removeStoredFile(stored.key);
+    throw error;
+  }
+}
+
+/** Sends a stored upload as a download that cannot run in the app's origin. */
+export async function sendStoredFile(res: Response, file: { storageKey: string; contentType: string; fileName: string }): Promise<void> {
+  const content = await readStoredFile(file.storageKey);
+  res.setHeader('Content-Type', file.contentType);
+  res.setHeader('Content-Disposition', attachmentHeader(file.fileName));
+  res.setHeader('X-Content-Type-Options', 'nosniff');
+  res.setHeader('Content-Security-Policy', "default-src 'none'; sandbox");
+  res.setHeader('Cache-Control', 'private, no-store');
+  res.status(200).end(content);
+}
