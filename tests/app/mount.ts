@@ -4,8 +4,8 @@ import { mount, flushPromises, type ComponentMountingOptions } from '@vue/test-u
 import { createPinia, setActivePinia, type Pinia } from 'pinia';
 import * as QuasarAll from 'quasar';
 import { Dialog, Notify, Quasar } from 'quasar';
-import { vi } from 'vitest';
-import { createMemoryHistory, createRouter, type Router } from 'vue-router';
+import { afterEach, vi } from 'vitest';
+import { createMemoryHistory, createRouter, type RouteRecordRaw, type Router } from 'vue-router';
 import { defineComponent, h, type Component, type Plugin } from 'vue';
 import type { SessionUser } from 'shared/auth';
 import type { Role } from 'shared/roles';
@@ -65,10 +65,49 @@ export function createHarness(role: Role | null): AppHarness {
   const session = useSessionStore(pinia);
   if (role) session.setSession({ user: demoUser(role), csrfToken: 'test-token' });
   else session.loaded = true;
-  const router = createRouter({ history: createMemoryHistory(), routes });
+  // Start on a blank public screen: the app's '/' would lazily load the Overview in the background,
+  // and a test that ends before that import settles fails at teardown.
+  const history = createMemoryHistory();
+  history.replace(HARNESS_START);
+  const router = createRouter({
+    history,
+    routes: [{ path: HARNESS_START, component: BlankScreen, meta: { public: true } }, ...trackedRoutes],
+  });
   router.beforeEach(createAuthGuard(pinia));
   return { pinia, router };
 }
+
+const HARNESS_START = '/__harness-start';
+const BlankScreen = defineComponent({ name: 'HarnessStart', setup: () => () => h('div') });
+
+/*
+ * Every lazy page a test opens is imported in the background; the file's environment must outlive
+ * those imports, so each one is remembered and awaited after every test.
+ */
+const pendingPageLoads = new Set<Promise<unknown>>();
+
+function trackLazyPages(records: readonly RouteRecordRaw[]): RouteRecordRaw[] {
+  return records.map((record) => {
+    const tracked = { ...record } as RouteRecordRaw & { component?: unknown; children?: RouteRecordRaw[] };
+    const load = tracked.component;
+    if (typeof load === 'function' && !('setup' in load) && !('render' in load)) {
+      tracked.component = () => {
+        const loading = (load as () => Promise<unknown>)();
+        pendingPageLoads.add(loading);
+        void loading.finally(() => pendingPageLoads.delete(loading)).catch(() => undefined);
+        return loading;
+      };
+    }
+    if (tracked.children) tracked.children = trackLazyPages(tracked.children);
+    return tracked as RouteRecordRaw;
+  });
+}
+
+const trackedRoutes = trackLazyPages(routes);
+
+afterEach(async () => {
+  while (pendingPageLoads.size > 0) await Promise.allSettled([...pendingPageLoads]);
+});
 
 /** Stub for the chart: ApexCharts needs a real canvas and layout. */
 export const ChartPanelStub = defineComponent({
