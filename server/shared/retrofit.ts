@@ -54,8 +54,10 @@ const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-
 const money = z.number().min(0, 'must be zero or more').max(1e10, 'must be at most 10 000 000 000');
 const text = (max: number) => z.string().trim().max(max, `must be at most ${max} characters`);
 
-/** The installed motor's and drive's data (what was actually fitted, from its nameplate). */
+/** The installed motor's and drive's data (what was actually fitted, from its nameplate), and who fitted it. */
 export const installedEquipment = z.object({
+  /** The electrician or contractor who did the work (the person who records it is in the history). */
+  installedBy: text(120).optional(),
   motor: z
     .object({
       type: text(80).optional(),

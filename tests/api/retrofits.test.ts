@@ -118,10 +118,10 @@ describe('the workflow', () => {
       installationDate: '2026-05-20',
       actualCapex: 4200.5,
       rebateReceived: 600,
-      installedEquipment: { motor: { type: 'IE4 induction', ratedPowerKw: 18.5, efficiencyPct: 94.2, frame: '180M' }, drive: { type: 'VSD', ratedPowerKw: 22, efficiencyPct: 97.5 } },
+      installedEquipment: { installedBy: 'Ridgeway Electrical', motor: { type: 'IE4 induction', ratedPowerKw: 18.5, efficiencyPct: 94.2, frame: '180M' }, drive: { type: 'VSD', ratedPowerKw: 22, efficiencyPct: 97.5 } },
     });
     expect(installed.status).toBe(200);
-    expect(installed.body).toMatchObject({ status: 'installed', installationDate: '2026-05-20', actualCapex: 4200.5, rebateReceived: 600, overdue: false, installedEquipment: { motor: { frame: '180M' } } });
+    expect(installed.body).toMatchObject({ status: 'installed', installationDate: '2026-05-20', actualCapex: 4200.5, rebateReceived: 600, overdue: false, installedEquipment: { installedBy: 'Ridgeway Electrical', motor: { frame: '180M' } } });
     await waitForMail((message) => message.toAddresses.includes(approver.email.toLowerCase()) && message.subject === `Retrofit recorded as installed: AER-FAN-2 (ie4) at ${site.name}`);
     const notYet = await session.patch(`/api/retrofits/${row.id}`).send({ version: 2, status: 'verified' });
     expect(notYet.status).toBe(409);
