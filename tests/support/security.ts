@@ -9,6 +9,7 @@ import { randomBytes } from 'node:crypto';
 import { expect } from 'vitest';
 import type { RouteSpec } from '../../server/lib/routing.js';
 import { OutboxAttachment, OutboxMessage, type Organization, type Site, type User, type Motor } from '../../server/models/index.js';
+import { database } from '../../server/lib/database.js';
 import { ROLES, type Role } from '../../server/shared/roles.js';
 import { createOrganization, createSite, createUser, signIn, waitForMail, type TestContext } from './api.js';
 import { createMotor } from './retrofits.js';
@@ -215,4 +216,76 @@ export function send(session: { agent: import('supertest').Agent; token?: string
   const test = session.agent[method](`/api${path}`);
   if (csrf && session.token && method !== 'get') test.set('x-csrf-token', session.token);
   return test;
+}
+
+/** A multipart upload: text fields and one file. */
+export interface Upload {
+  fields: Record<string, string>;
+  file: Buffer;
+  fileName: string;
+}
+
+/**
+ * A request each write route accepts in shape (it passes the route's validation), so that what
+ * answers is the handler: the isolation test needs it to reach the organisation check. `f` is the
+ * organisation whose rows the body may name. A write route missing here is sent `{}`.
+ */
+export function validInput(spec: Pick<RouteSpec, 'method' | 'path'>, f: OrgFixture): { body?: unknown; query?: string; upload?: Upload } | undefined {
+  const inputs: Record<string, { body?: unknown; query?: string; upload?: Upload }> = {
+    'GET /cases/:id/export': { query: 'format=xlsx' },
+    'POST /cases/:id/send': { body: { message: 'Please review' } },
+    'POST /cases/:id/decision': { body: { decision: 'approved' } },
+    'POST /designs/:id/simulate': { body: { load: { kind: 'constant', torqueNm: 1 }, durationS: 0.01 } },
+    'POST /designs/:id/efficiency-map': { body: { speedsRpm: [1000], torquesNm: [1] } },
+    'POST /motors/:id/design': { body: { designId: null } },
+    'PATCH /motors/:id': { body: { version: f.motor.version, description: 'changed' } },
+    'POST /motors/:id/measurements': { body: { measuredAt: '2026-01-06', inputPowerKw: 5 } },
+    'POST /motors/:id/files': { upload: { fields: { kind: 'document' }, file: PNG, fileName: 'plate.png' } },
+    'PUT /imports/:id/mapping': { body: { mapping: { Tag: 'tag' } } },
+    'PATCH /retrofits/:id': { body: { version: 0, notes: 'changed' } },
+    'POST /retrofits/:id/meter-data': { upload: { fields: { period: 'baseline' }, file: Buffer.from(meterCsv()), fileName: 'baseline.csv' } },
+    'POST /retrofits/:id/files': { upload: { fields: { kind: 'photo' }, file: PNG, fileName: 'site.png' } },
+    'POST /sites/:id/screening': { body: {} },
+    'PATCH /sites/:id': { body: { version: f.site.version, name: 'renamed' } },
+    'POST /screenings/:jobId/proposals': { body: { motorIds: [f.ids.motor] } },
+    'PATCH /settings/materials/:id': { body: { version: 0, pricePerKg: 50 } },
+    'PATCH /users/:id': { body: { version: 0, role: 'engineer' } },
+  };
+  return inputs[routeKey(spec)];
+}
+
+/** Sends `spec` on `path` with `input` (JSON body, query string or multipart upload). */
+export function sendInput(session: Session, spec: Pick<RouteSpec, 'method'>, path: string, input: ReturnType<typeof validInput>) {
+  let test = send(session, spec.method, input?.query ? `${path}?${input.query}` : path);
+  if (input?.upload) {
+    for (const [name, value] of Object.entries(input.upload.fields)) test = test.field(name, value);
+    return test.attach('file', input.upload.file, input.upload.fileName);
+  }
+  if (spec.method !== 'get') test = test.send((input?.body ?? {}) as object);
+  return test;
+}
+
+/** Waits until no background job is queued or running (the job runner writes to the jobs table). */
+export async function jobsSettled(timeoutMs = 30_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    const [rows] = await database().query(`SELECT count(*)::int AS busy FROM jobs WHERE status IN ('queued', 'running')`);
+    if ((rows as { busy: number }[])[0]!.busy === 0) return;
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+  throw new Error('background jobs did not finish');
+}
+
+/**
+ * Row count and md5 of the rows of every table of the schema, but `excluded`: one query, so the
+ * picture is consistent. Rows are hashed in their text form sorted, so the order of storage does not matter.
+ */
+export async function databaseSnapshot(excluded: readonly string[]): Promise<Record<string, string>> {
+  const [tables] = await database().query(`SELECT tablename AS name FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`);
+  const names = (tables as { name: string }[]).map((row) => row.name).filter((name) => !excluded.includes(name));
+  const parts = names.map(
+    (name) => `SELECT '${name}' AS name, count(*) || ':' || coalesce(md5(string_agg(t::text, '|' ORDER BY t::text)), '') AS digest FROM "${name}" t`,
+  );
+  const [rows] = await database().query(parts.join(' UNION ALL '));
+  return Object.fromEntries((rows as { name: string; digest: string }[]).map((row) => [row.name, row.digest]));
 }
