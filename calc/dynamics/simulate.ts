@@ -300,16 +300,63 @@ export function resolveSimulationInput(input: SimulationInput, paramsField = 'pa
   };
 }
 
-// Event indices: one per leg (diode current zero / floating phase at a rail), then the others.
-const EVENT_HALL = 3;
-const EVENT_HYSTERESIS = 4;
-const EVENT_STANDSTILL = 5;
-const EVENT_LOAD_STEP = 6;
-const EVENT_COUNT = 7;
 /** Relative overshoot of a floating phase beyond a rail that clamps it to its diode [-] (numerical tolerance). */
 const RAIL_TOLERANCE = 1e-9;
 
-if (DYNAMIC_STATE_SIZE !== 6 || STATE_SIZE !== 10) throw new Error('stageState and rk4 are written out for a state of 6 + 4 entries');
+/*
+ * Indices as const enums, so that esbuild writes the numbers into the stepping loop: V8 re-reads a
+ * module-level or imported constant with a check on every use, which the inner loop pays millions
+ * of times. They mirror the exports of model.ts, inverter.ts and load.ts (checked below).
+ */
+const enum State {
+  CurrentA = 0,
+  Speed = 3,
+  Angle = 4,
+  DcBus = 5,
+  EnergyIn = 6,
+  EnergyCopper = 7,
+  EnergyLoad = 8,
+  EnergyFriction = 9,
+  Size = 10,
+}
+const enum Aux {
+  Torque = 1,
+  LoadTorque = 2,
+  InputPower = 3,
+  Emf = 4,
+  PhaseV = 7,
+  TerminalV = 10,
+  Size = 14,
+}
+const enum Leg {
+  High = 0,
+  Low = 1,
+  DiodeLow = 2,
+  DiodeHigh = 3,
+  Open = 4,
+}
+const enum LoadKindIndex {
+  Constant = 0,
+}
+/** Event indices: one per leg (diode current zero / floating phase at a rail), then the others. */
+const enum Event {
+  Hall = 3,
+  Hysteresis = 4,
+  Standstill = 5,
+  LoadStep = 6,
+  Count = 7,
+}
+const mirrors: [number, number][] = [
+  [State.CurrentA, S_CURRENT_A], [State.Speed, S_SPEED], [State.Angle, S_ANGLE], [State.DcBus, S_DC_BUS],
+  [State.EnergyIn, S_ENERGY_IN], [State.EnergyCopper, S_ENERGY_COPPER], [State.EnergyLoad, S_ENERGY_LOAD],
+  [State.EnergyFriction, S_ENERGY_FRICTION], [State.Size, STATE_SIZE], [Aux.Torque, AUX_TORQUE],
+  [Aux.LoadTorque, AUX_LOAD_TORQUE], [Aux.InputPower, AUX_INPUT_POWER], [Aux.Emf, AUX_EMF], [Aux.PhaseV, AUX_PHASE_V],
+  [Aux.TerminalV, AUX_TERMINAL_V], [Aux.Size, AUX_SIZE], [Leg.High, LEG_HIGH], [Leg.Low, LEG_LOW],
+  [Leg.DiodeLow, LEG_DIODE_LOW], [Leg.DiodeHigh, LEG_DIODE_HIGH], [Leg.Open, LEG_OPEN], [LoadKindIndex.Constant, LOAD_CONSTANT],
+  [6, DYNAMIC_STATE_SIZE],
+];
+if (mirrors.some(([local, exported]) => local !== exported)) throw new Error('simulate.ts index enums no longer match model.ts, inverter.ts or load.ts');
+
 
 /**
  * RK4 stage state, stage = x + h·k, for the entries the derivative reads (written out: a loop over
@@ -327,22 +374,22 @@ function stageState(stage: Float64Array, x: Float64Array, k: Float64Array, h: nu
 /** The stepping engine. Construct with a resolved input; advance in chunks; read the result. */
 class BldcSimulation implements SteppedRun<SimulationResult> {
   private readonly model: BldcModel;
-  private auxStart = new Float64Array(AUX_SIZE);
-  private auxEnd = new Float64Array(AUX_SIZE);
-  private x = new Float64Array(STATE_SIZE);
-  private xTrial = new Float64Array(STATE_SIZE);
-  private k1 = new Float64Array(STATE_SIZE);
-  private kNext = new Float64Array(STATE_SIZE);
-  private readonly work: Rk4Workspace = createRk4Workspace(STATE_SIZE);
+  private auxStart = new Float64Array(Aux.Size);
+  private auxEnd = new Float64Array(Aux.Size);
+  private x = new Float64Array(State.Size);
+  private xTrial = new Float64Array(State.Size);
+  private k1 = new Float64Array(State.Size);
+  private kNext = new Float64Array(State.Size);
+  private readonly work: Rk4Workspace = createRk4Workspace(State.Size);
   private readonly legMode = new Int32Array(3);
   private readonly legFactor = new Float64Array(3);
   private readonly closed = new Float64Array(3);
-  private g0 = new Float64Array(EVENT_COUNT);
-  private g1 = new Float64Array(EVENT_COUNT);
+  private g0 = new Float64Array(Event.Count);
+  private g1 = new Float64Array(Event.Count);
   /** Per leg: 1 while a diode that just blocked at zero current must not be re-clamped at this same instant. */
   private readonly railHold = new Uint8Array(3);
   private railHoldAny = false;
-  private readonly due = new Uint8Array(EVENT_COUNT);
+  private readonly due = new Uint8Array(Event.Count);
   private readonly gAt: (tau: number) => number;
   private readonly speedPi: PiController;
   private readonly currentPi: PiController;
@@ -407,8 +454,8 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     this.stepPendingTime = input.stepAtTimeS ?? Infinity;
     this.stepPendingSpeed = input.stepAtSpeedRadS ?? Infinity;
 
-    this.x[S_DC_BUS] = input.rectifier === null ? params.dcBusV : input.rectifier.peakLineV;
-    this.x[S_ANGLE] = input.initialAngleRad;
+    this.x[State.DcBus] = input.rectifier === null ? params.dcBusV : input.rectifier.peakLineV;
+    this.x[State.Angle] = input.initialAngleRad;
     const electrical = params.polePairs * input.initialAngleRad;
     this.sectorIndex = hallSector(electrical);
     const count = sectorCount(electrical);
@@ -416,7 +463,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     this.thetaNext = (FIRST_BOUNDARY_RAD + SECTOR_RAD * (count + 1)) / params.polePairs;
     this.highLeg = SECTOR_HIGH_LEG[this.sectorIndex] as number;
     this.lowLeg = SECTOR_LOW_LEG[this.sectorIndex] as number;
-    this.legMode.fill(LEG_OPEN);
+    this.legMode.fill(Leg.Open);
     this.refreshLegs();
     this.control();
     if (input.switched) {
@@ -443,15 +490,15 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     this.ensureStart();
     const params = this.input.params;
     const inductance = effectiveInductance(params.phaseInductanceH, params.mutualInductanceH);
-    const ia = x[S_CURRENT_A] as number;
-    const ib = x[S_CURRENT_A + 1] as number;
-    const ic = x[S_CURRENT_A + 2] as number;
-    const speed = x[S_SPEED] as number;
+    const ia = x[State.CurrentA] as number;
+    const ib = x[State.CurrentA + 1] as number;
+    const ic = x[State.CurrentA + 2] as number;
+    const speed = x[State.Speed] as number;
     const energies = {
-      inputJ: x[S_ENERGY_IN] as number,
-      copperLossJ: x[S_ENERGY_COPPER] as number,
-      loadJ: x[S_ENERGY_LOAD] as number,
-      frictionJ: x[S_ENERGY_FRICTION] as number,
+      inputJ: x[State.EnergyIn] as number,
+      copperLossJ: x[State.EnergyCopper] as number,
+      loadJ: x[State.EnergyLoad] as number,
+      frictionJ: x[State.EnergyFriction] as number,
       kineticJ: 0.5 * this.input.totalInertiaKgM2 * speed * speed,
       magneticJ: 0.5 * inductance * (ia * ia + ib * ib + ic * ic),
     };
@@ -481,7 +528,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       const h = tEnd - this.t;
       this.tau = h;
       this.trial(-1);
-      for (let j = 0; j < EVENT_COUNT; j++) {
+      for (let j = 0; j < Event.Count; j++) {
         if (this.crossed(j)) {
           plain = false;
           break;
@@ -507,21 +554,13 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     this.t = tEnd;
     this.n += 1;
     const x = this.x;
-    const speed = x[S_SPEED] as number;
-    if (!Number.isFinite(speed) || !Number.isFinite(x[S_CURRENT_A] as number) || !Number.isFinite(x[S_DC_BUS] as number)) {
+    const speed = x[State.Speed] as number;
+    if (!Number.isFinite(speed) || !Number.isFinite(x[State.CurrentA] as number) || !Number.isFinite(x[State.DcBus] as number)) {
       throw new CalcInputError('stepS', `gives a non-finite state at t = ${this.t.toPrecision(6)} s: the step is too large for this system`);
     }
     this.ensureStart();
-    this.tracker.sample(
-      this.t,
-      speed,
-      this.auxStart[AUX_TORQUE] as number,
-      x[S_CURRENT_A] as number,
-      x[S_CURRENT_A + 1] as number,
-      x[S_CURRENT_A + 2] as number,
-      x[S_ENERGY_IN] as number,
-      x[S_ENERGY_LOAD] as number,
-    );
+    this.tracker.time = this.t;
+    this.tracker.sample(x, this.auxStart);
     if (--this.untilRecord === 0 || this.n === this.input.steps) {
       if (this.untilRecord === 0) this.untilRecord = this.input.recordEvery;
       this.record();
@@ -548,7 +587,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       }
       let earliest = -1;
       let earliestTau = Infinity;
-      for (let j = 0; j < EVENT_COUNT; j++) {
+      for (let j = 0; j < Event.Count; j++) {
         if (!this.crossed(j)) continue;
         const a = this.g0[j] as number;
         const tau = a > 0 ? (stepLength * a) / (a - (this.g1[j] as number)) : 0;
@@ -563,12 +602,12 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       }
       if (earliestTau === 0) {
         // An event due at the very start (a diode entered with zero current, a boundary sitting on θ).
-        for (let j = 0; j < EVENT_COUNT; j++) this.due[j] = (this.g0[j] as number) === 0 && this.crossed(j) ? 1 : 0;
+        for (let j = 0; j < Event.Count; j++) this.due[j] = (this.g0[j] as number) === 0 && this.crossed(j) ? 1 : 0;
         this.handleEvents(true);
         return;
       }
       if (refined >= 0 && earliestTau >= stepLength * (1 - 1e-6)) {
-        for (let j = 0; j < EVENT_COUNT; j++) this.due[j] = this.crossed(j) ? 1 : 0;
+        for (let j = 0; j < Event.Count; j++) this.due[j] = this.crossed(j) ? 1 : 0;
         this.commit(stepLength);
         this.handleEvents(false);
         return;
@@ -631,7 +670,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     const a = this.g0[j] as number;
     const b = this.g1[j] as number;
     if (a > 0) return b <= 0;
-    return a === 0 && b < 0 && j !== EVENT_STANDSTILL && j !== EVENT_LOAD_STEP;
+    return a === 0 && b < 0 && j !== Event.Standstill && j !== Event.LoadStep;
   }
 
   private commit(h: number): void {
@@ -665,12 +704,12 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       this.model.time = this.t;
       this.model.evaluate(this.x, this.k1, this.auxStart);
       this.k1Valid = true;
-      const vdc = this.x[S_DC_BUS] as number;
+      const vdc = this.x[State.DcBus] as number;
       for (let k = 0; k < 3; k++) {
-        if (this.legMode[k] !== LEG_OPEN || this.railHold[k] === 1) continue;
-        const terminal = this.auxStart[AUX_TERMINAL_V + k] as number;
-        if (terminal > vdc * (1 + RAIL_TOLERANCE)) this.setLegMode(k, LEG_DIODE_HIGH);
-        else if (terminal < -vdc * RAIL_TOLERANCE) this.setLegMode(k, LEG_DIODE_LOW);
+        if (this.legMode[k] !== Leg.Open || this.railHold[k] === 1) continue;
+        const terminal = this.auxStart[Aux.TerminalV + k] as number;
+        if (terminal > vdc * (1 + RAIL_TOLERANCE)) this.setLegMode(k, Leg.DiodeHigh);
+        else if (terminal < -vdc * RAIL_TOLERANCE) this.setLegMode(k, Leg.DiodeLow);
       }
     }
     this.eventValues(this.x, this.auxStart, this.g0);
@@ -679,7 +718,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
   private setLegMode(k: number, mode: number): void {
     this.legMode[k] = mode;
     this.legFactor[k] = legFactor(mode, this.highFactor());
-    this.closed[k] = mode === LEG_OPEN ? 0 : 1;
+    this.closed[k] = mode === Leg.Open ? 0 : 1;
     this.k1Valid = false;
   }
 
@@ -698,47 +737,47 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     const gate = this.gateOn();
     for (let k = 0; k < 3; k++) {
       let mode: number;
-      if (k === this.highLeg && gate) mode = LEG_HIGH;
-      else if (k === this.lowLeg) mode = LEG_LOW;
+      if (k === this.highLeg && gate) mode = Leg.High;
+      else if (k === this.lowLeg) mode = Leg.Low;
       else {
         const previous = this.legMode[k] as number;
-        mode = previous === LEG_HIGH || previous === LEG_LOW ? offLegMode(this.x[S_CURRENT_A + k] as number) : previous;
+        mode = previous === Leg.High || previous === Leg.Low ? offLegMode(this.x[State.CurrentA + k] as number) : previous;
       }
       this.setLegMode(k, mode);
     }
   }
 
   private maxCurrent(x: Float64Array): number {
-    return Math.max(Math.abs(x[S_CURRENT_A] as number), Math.abs(x[S_CURRENT_A + 1] as number), Math.abs(x[S_CURRENT_A + 2] as number));
+    return Math.max(Math.abs(x[State.CurrentA] as number), Math.abs(x[State.CurrentA + 1] as number), Math.abs(x[State.CurrentA + 2] as number));
   }
 
   /** Value of event function j; positive while nothing happens, crossing zero at the event (∞ when disarmed). */
   private eventValue(j: number, x: Float64Array, aux: Float64Array): number {
     if (j < 3) {
       const mode = this.legMode[j];
-      const current = x[S_CURRENT_A + j] as number;
-      if (mode === LEG_DIODE_LOW) return current;
-      if (mode === LEG_DIODE_HIGH) return -current;
-      if (mode === LEG_OPEN) {
-        const terminal = aux[AUX_TERMINAL_V + j] as number;
-        return Math.min((x[S_DC_BUS] as number) - terminal, terminal);
+      const current = x[State.CurrentA + j] as number;
+      if (mode === Leg.DiodeLow) return current;
+      if (mode === Leg.DiodeHigh) return -current;
+      if (mode === Leg.Open) {
+        const terminal = aux[Aux.TerminalV + j] as number;
+        return Math.min((x[State.DcBus] as number) - terminal, terminal);
       }
       return Infinity;
     }
-    if (j === EVENT_HALL) {
-      const theta = x[S_ANGLE] as number;
+    if (j === Event.Hall) {
+      const theta = x[State.Angle] as number;
       return Math.min(theta - this.thetaPrev, this.thetaNext - theta);
     }
-    if (j === EVENT_HYSTERESIS) {
+    if (j === Event.Hysteresis) {
       if (!this.input.hysteresis || !Number.isFinite(this.currentRef)) return Infinity;
       const measured = this.maxCurrent(x);
       const half = 0.5 * this.input.bandA;
       return this.hysteresisOn ? this.currentRef + half - measured : measured - (this.currentRef - half);
     }
-    if (j === EVENT_STANDSTILL) {
-      return this.input.load.kind === LOAD_CONSTANT && this.input.load.active === 1 ? (x[S_SPEED] as number) : Infinity;
+    if (j === Event.Standstill) {
+      return this.input.load.kind === LoadKindIndex.Constant && this.input.load.active === 1 ? (x[State.Speed] as number) : Infinity;
     }
-    return this.stepPendingSpeed - (x[S_SPEED] as number);
+    return this.stepPendingSpeed - (x[State.Speed] as number);
   }
 
   /**
@@ -746,67 +785,67 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
    * a double returned from a call V8 does not inline is boxed, and this runs every step).
    */
   private eventValues(x: Float64Array, aux: Float64Array, out: Float64Array): void {
-    const vdc = x[S_DC_BUS] as number;
+    const vdc = x[State.DcBus] as number;
     for (let k = 0; k < 3; k++) {
       const mode = this.legMode[k];
       let value = Infinity;
-      if (mode === LEG_DIODE_LOW) value = x[S_CURRENT_A + k] as number;
-      else if (mode === LEG_DIODE_HIGH) value = -(x[S_CURRENT_A + k] as number);
-      else if (mode === LEG_OPEN) {
-        const terminal = aux[AUX_TERMINAL_V + k] as number;
+      if (mode === Leg.DiodeLow) value = x[State.CurrentA + k] as number;
+      else if (mode === Leg.DiodeHigh) value = -(x[State.CurrentA + k] as number);
+      else if (mode === Leg.Open) {
+        const terminal = aux[Aux.TerminalV + k] as number;
         const toHigh = vdc - terminal;
         value = toHigh < terminal ? toHigh : terminal;
       }
       out[k] = value;
     }
-    const theta = x[S_ANGLE] as number;
+    const theta = x[State.Angle] as number;
     const fromPrev = theta - this.thetaPrev;
     const toNext = this.thetaNext - theta;
-    out[EVENT_HALL] = fromPrev < toNext ? fromPrev : toNext;
-    if (!this.input.hysteresis || !Number.isFinite(this.currentRef)) out[EVENT_HYSTERESIS] = Infinity;
+    out[Event.Hall] = fromPrev < toNext ? fromPrev : toNext;
+    if (!this.input.hysteresis || !Number.isFinite(this.currentRef)) out[Event.Hysteresis] = Infinity;
     else {
-      const ia = Math.abs(x[S_CURRENT_A] as number);
-      const ib = Math.abs(x[S_CURRENT_A + 1] as number);
-      const ic = Math.abs(x[S_CURRENT_A + 2] as number);
+      const ia = Math.abs(x[State.CurrentA] as number);
+      const ib = Math.abs(x[State.CurrentA + 1] as number);
+      const ic = Math.abs(x[State.CurrentA + 2] as number);
       const measured = ia > ib ? (ia > ic ? ia : ic) : ib > ic ? ib : ic;
       const half = 0.5 * this.input.bandA;
-      out[EVENT_HYSTERESIS] = this.hysteresisOn ? this.currentRef + half - measured : measured - (this.currentRef - half);
+      out[Event.Hysteresis] = this.hysteresisOn ? this.currentRef + half - measured : measured - (this.currentRef - half);
     }
-    const speed = x[S_SPEED] as number;
-    out[EVENT_STANDSTILL] = this.input.load.kind === LOAD_CONSTANT && this.input.load.active === 1 ? speed : Infinity;
-    out[EVENT_LOAD_STEP] = this.stepPendingSpeed - speed;
+    const speed = x[State.Speed] as number;
+    out[Event.Standstill] = this.input.load.kind === LoadKindIndex.Constant && this.input.load.active === 1 ? speed : Infinity;
+    out[Event.LoadStep] = this.stepPendingSpeed - speed;
   }
 
 
   /** Applies every event marked in `due` (crossed in the last committed step, or due now when atStart). */
   private handleEvents(atStart: boolean): void {
     const x = this.x;
-    for (let j = 0; j < EVENT_COUNT; j++) {
+    for (let j = 0; j < Event.Count; j++) {
       if (this.due[j] === 0) continue;
       this.stateEvents += 1;
       if (j < 3) {
         const mode = this.legMode[j];
-        if (mode === LEG_OPEN) {
+        if (mode === Leg.Open) {
           // A floating phase reached a rail: its diode starts to conduct.
-          const terminal = this.auxStart[AUX_TERMINAL_V + j] as number;
-          this.setLegMode(j, terminal > 0.5 * (x[S_DC_BUS] as number) ? LEG_DIODE_HIGH : LEG_DIODE_LOW);
+          const terminal = this.auxStart[Aux.TerminalV + j] as number;
+          this.setLegMode(j, terminal > 0.5 * (x[State.DcBus] as number) ? Leg.DiodeHigh : Leg.DiodeLow);
         } else {
           // The freewheeling current reached zero: the diode blocks and the phase floats ([1] Table I).
           if (atStart) {
             this.railHold[j] = 1;
             this.railHoldAny = true;
           }
-          const residual = x[S_CURRENT_A + j] as number;
-          x[S_CURRENT_A + j] = 0;
+          const residual = x[State.CurrentA + j] as number;
+          x[State.CurrentA + j] = 0;
           const other1 = (j + 1) % 3;
           const other2 = (j + 2) % 3;
           const share = 0.5 * residual;
-          x[S_CURRENT_A + other1] = (x[S_CURRENT_A + other1] as number) + share;
-          x[S_CURRENT_A + other2] = (x[S_CURRENT_A + other2] as number) + share;
-          this.setLegMode(j, LEG_OPEN);
+          x[State.CurrentA + other1] = (x[State.CurrentA + other1] as number) + share;
+          x[State.CurrentA + other2] = (x[State.CurrentA + other2] as number) + share;
+          this.setLegMode(j, Leg.Open);
         }
-      } else if (j === EVENT_HALL) {
-        const theta = x[S_ANGLE] as number;
+      } else if (j === Event.Hall) {
+        const theta = x[State.Angle] as number;
         const width = SECTOR_RAD / this.input.params.polePairs;
         if (theta >= this.thetaNext - 1e-12 * width) {
           this.sectorIndex = (this.sectorIndex + 1) % 6;
@@ -820,13 +859,13 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
         this.highLeg = SECTOR_HIGH_LEG[this.sectorIndex] as number;
         this.lowLeg = SECTOR_LOW_LEG[this.sectorIndex] as number;
         this.refreshLegs();
-      } else if (j === EVENT_HYSTERESIS) {
+      } else if (j === Event.Hysteresis) {
         this.hysteresisOn = !this.hysteresisOn;
         this.refreshLegs();
-      } else if (j === EVENT_STANDSTILL) {
-        x[S_SPEED] = 0;
+      } else if (j === Event.Standstill) {
+        x[State.Speed] = 0;
         this.k1Valid = false;
-      } else if (j === EVENT_LOAD_STEP) {
+      } else if (j === Event.LoadStep) {
         this.input.load.active = 1;
         this.stepPendingSpeed = Infinity;
         this.k1Valid = false;
@@ -877,7 +916,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
   private control(): void {
     const input = this.input;
     const x = this.x;
-    const speed = x[S_SPEED] as number;
+    const speed = x[State.Speed] as number;
     if (input.setSpeedRadS !== null) {
       this.currentRef = this.speedPi.update(rampedReference(this.t, input.setSpeedRadS, input.rampS) - speed, 0);
     } else {
@@ -897,7 +936,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     let duty = 1;
     if (Number.isFinite(this.currentRef)) {
       // Back-EMF feed-forward of the line flat-top EMF, 2·k_e·ω / V_dc ([2] §9.5).
-      const feedForward = (2 * input.params.backEmfConstantVsPerRad * speed) / (x[S_DC_BUS] as number);
+      const feedForward = (2 * input.params.backEmfConstantVsPerRad * speed) / (x[State.DcBus] as number);
       duty = this.currentPi.update(this.currentRef - measured, feedForward);
     }
     if (duty !== this.duty) {
@@ -914,21 +953,21 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     const values = series.values;
     const x = this.x;
     const aux = this.auxStart;
-    const vdc = x[S_DC_BUS] as number;
+    const vdc = x[State.DcBus] as number;
     values.timeS[i] = this.t;
-    values.speedRpm[i] = ((x[S_SPEED] as number) * 60) / (2 * Math.PI);
-    values.torqueNm[i] = aux[AUX_TORQUE] as number;
-    values.loadTorqueNm[i] = aux[AUX_LOAD_TORQUE] as number;
-    values.phaseCurrentAA[i] = x[S_CURRENT_A] as number;
-    values.phaseCurrentBA[i] = x[S_CURRENT_A + 1] as number;
-    values.phaseCurrentCA[i] = x[S_CURRENT_A + 2] as number;
-    values.phaseVoltageAV[i] = aux[AUX_PHASE_V] as number;
-    values.phaseVoltageBV[i] = aux[AUX_PHASE_V + 1] as number;
-    values.phaseVoltageCV[i] = aux[AUX_PHASE_V + 2] as number;
-    values.backEmfAV[i] = aux[AUX_EMF] as number;
-    values.backEmfBV[i] = aux[AUX_EMF + 1] as number;
-    values.backEmfCV[i] = aux[AUX_EMF + 2] as number;
-    values.dcLinkCurrentA[i] = (aux[AUX_INPUT_POWER] as number) / vdc;
+    values.speedRpm[i] = ((x[State.Speed] as number) * 60) / (2 * Math.PI);
+    values.torqueNm[i] = aux[Aux.Torque] as number;
+    values.loadTorqueNm[i] = aux[Aux.LoadTorque] as number;
+    values.phaseCurrentAA[i] = x[State.CurrentA] as number;
+    values.phaseCurrentBA[i] = x[State.CurrentA + 1] as number;
+    values.phaseCurrentCA[i] = x[State.CurrentA + 2] as number;
+    values.phaseVoltageAV[i] = aux[Aux.PhaseV] as number;
+    values.phaseVoltageBV[i] = aux[Aux.PhaseV + 1] as number;
+    values.phaseVoltageCV[i] = aux[Aux.PhaseV + 2] as number;
+    values.backEmfAV[i] = aux[Aux.Emf] as number;
+    values.backEmfBV[i] = aux[Aux.Emf + 1] as number;
+    values.backEmfCV[i] = aux[Aux.Emf + 2] as number;
+    values.dcLinkCurrentA[i] = (aux[Aux.InputPower] as number) / vdc;
     values.dcBusV[i] = vdc;
     series.length = i + 1;
   }

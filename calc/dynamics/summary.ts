@@ -110,29 +110,48 @@ export class SummaryTracker {
   constructor(
     readonly windowStartS: number,
     readonly targetSpeedRadS: number,
-  ) {}
+  ) {
+    this.threshold = START_UP_SPEED_FRACTION * targetSpeedRadS;
+  }
+
+  /** 95 % of the target speed [rad/s] (NaN without a target: never crossed on the fly). */
+  private readonly threshold: number;
 
   /**
-   * Takes one grid sample.
-   * @param timeS [s] @param speedRadS [rad/s] @param torqueNm electromagnetic torque [N·m]
-   * @param ia @param ib @param ic phase currents [A]
-   * @param inputJ @param loadJ energy integrals so far [J]
+   * Time of the next sample [s]. A field rather than an argument: V8 boxes the floating-point
+   * arguments of a call it does not inline, which would allocate on every grid step.
    */
-  sample(timeS: number, speedRadS: number, torqueNm: number, ia: number, ib: number, ic: number, inputJ: number, loadJ: number): void {
-    const peak = Math.max(Math.abs(ia), Math.abs(ib), Math.abs(ic));
+  time = 0;
+
+  /**
+   * Takes one grid sample at `time`.
+   * @param x state vector (currents [A], speed [rad/s], energy integrals [J]; indices of model.ts)
+   * @param aux auxiliary outputs at x (electromagnetic torque [N·m]; indices of model.ts)
+   */
+  sample(x: Float64Array, aux: Float64Array): void {
+    const timeS = this.time;
+    // Indices of S_CURRENT_A…, S_SPEED, S_ENERGY_IN, S_ENERGY_LOAD and AUX_TORQUE in model.ts (simulate.ts checks them).
+    const ia = x[0] as number;
+    const ib = x[1] as number;
+    const ic = x[2] as number;
+    const speedRadS = x[3] as number;
+    const torqueNm = aux[1] as number;
+    const absA = ia < 0 ? -ia : ia;
+    const absB = ib < 0 ? -ib : ib;
+    const absC = ic < 0 ? -ic : ic;
+    const peak = absA > absB ? (absA > absC ? absA : absC) : absB > absC ? absB : absC;
     if (peak > this.peakCurrent) this.peakCurrent = peak;
-    const threshold = START_UP_SPEED_FRACTION * this.targetSpeedRadS;
-    if (Number.isNaN(this.crossingTime) && speedRadS >= threshold) {
+    if (speedRadS >= this.threshold && Number.isNaN(this.crossingTime)) {
       // Linear interpolation between grid points.
       const rise = speedRadS - this.previousSpeed;
-      this.crossingTime = rise > 0 && timeS > 0 ? timeS - ((speedRadS - threshold) / rise) * (timeS - this.previousTime) : timeS;
+      this.crossingTime = rise > 0 && timeS > 0 ? timeS - ((speedRadS - this.threshold) / rise) * (timeS - this.previousTime) : timeS;
     }
     this.previousTime = timeS;
     this.previousSpeed = speedRadS;
     if (timeS >= this.windowStartS) {
       if (this.windowCount === 0) {
-        this.windowInputJ = inputJ;
-        this.windowLoadJ = loadJ;
+        this.windowInputJ = x[6] as number;
+        this.windowLoadJ = x[8] as number;
       }
       this.windowCount += 1;
       if (torqueNm > this.torqueMax) this.torqueMax = torqueNm;
