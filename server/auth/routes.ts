@@ -3,7 +3,17 @@ import { route, type RouteSpec } from '../lib/routing.js';
 import { csrfToken } from '../lib/csrf.js';
 import { acceptInvitationBody, changePasswordBody, csrfResponse, loginBody, meResponse } from '../shared/auth.js';
 import type { SessionUser } from '../shared/auth.js';
-import { acceptInvitation, authenticate, changePassword } from './service.js';
+import { acceptInvitation, authenticate, changePassword, endSessions } from './service.js';
+
+/** Ends the request's session: passport's logout, then the row in the session store. */
+function endThisSession(req: Request): Promise<void> {
+  return new Promise<void>((resolve, reject) => {
+    req.logout((logoutError) => {
+      if (logoutError) return reject(logoutError as Error);
+      req.session.destroy((destroyError) => (destroyError ? reject(destroyError as Error) : resolve()));
+    });
+  });
+}
 
 /** Signs the user in on a fresh session id (passport 0.7 regenerates it) and issues a new CSRF token. */
 function signIn(req: Request, user: SessionUser): Promise<{ user: SessionUser; csrfToken: string }> {
@@ -51,23 +61,29 @@ export const authRoutes: RouteSpec[] = [
     tag: 'auth',
     access: 'public',
     status: 204,
-    handler: ({ req }) =>
-      new Promise<void>((resolve, reject) => {
-        req.logout((logoutError) => {
-          if (logoutError) return reject(logoutError as Error);
-          req.session.destroy((destroyError) => (destroyError ? reject(destroyError as Error) : resolve()));
-        });
-      }),
+    handler: ({ req }) => endThisSession(req),
+  }),
+  route({
+    method: 'post',
+    path: '/auth/logout-everywhere',
+    summary: 'Sign out everywhere: ends every session of the signed-in user, in every browser, this one included',
+    tag: 'auth',
+    access: 'signed-in',
+    status: 204,
+    handler: async ({ req, user }) => {
+      await endSessions(user.id);
+      await endThisSession(req);
+    },
   }),
   route({
     method: 'post',
     path: '/auth/password',
-    summary: 'Change the signed-in user’s password',
+    summary: 'Change the signed-in user’s password (ends the user’s sessions in other browsers)',
     tag: 'auth',
     access: 'signed-in',
     body: changePasswordBody,
     status: 204,
-    handler: async ({ user, body }) => changePassword(user.id, body.currentPassword, body.newPassword),
+    handler: async ({ req, user, body }) => changePassword(user.id, body.currentPassword, body.newPassword, req.sessionID),
   }),
   route({
     method: 'post',

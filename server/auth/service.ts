@@ -2,6 +2,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { Op } from 'sequelize';
 import { User } from '../models/index.js';
+import { database } from '../lib/database.js';
 import { AppError, badRequest, tooManyAttempts } from '../lib/errors.js';
 import { hashPassword, verifyPassword } from '../lib/passwords.js';
 import type { SessionUser } from '../shared/auth.js';
@@ -45,12 +46,30 @@ export async function authenticate(email: string, password: string): Promise<Ses
   return sessionUser;
 }
 
-export async function changePassword(userId: number, currentPassword: string, newPassword: string): Promise<void> {
+/**
+ * Changes the password and ends the user's other sessions (every other browser signs in again with
+ * the new password); the session `keepSessionId` that asked for the change stays signed in.
+ */
+export async function changePassword(userId: number, currentPassword: string, newPassword: string, keepSessionId?: string): Promise<void> {
   const user = await User.findByPk(userId);
   if (!user || !(await verifyPassword(currentPassword, user.passwordHash))) {
     throw badRequest('currentPassword: is not your current password', [{ field: 'currentPassword', message: 'is not your current password' }]);
   }
   await user.update({ passwordHash: await hashPassword(newPassword), version: user.version + 1 });
+  await endSessions(userId, keepSessionId);
+}
+
+/**
+ * Ends every stored session of a user ("sign out everywhere"), except `keepSessionId` when given:
+ * deletes their rows from the PostgreSQL session store (connect-pg-simple's table; passport keeps
+ * the user id at sess.passport.user). A browser holding a deleted session id is simply signed out.
+ * Returns how many sessions ended.
+ */
+export async function endSessions(userId: number, keepSessionId?: string): Promise<number> {
+  const [, result] = await database().query(`DELETE FROM "session" WHERE (sess -> 'passport' ->> 'user') = :user AND sid <> :keep`, {
+    replacements: { user: String(userId), keep: keepSessionId ?? '' },
+  });
+  return (result as { rowCount?: number } | undefined)?.rowCount ?? 0;
 }
 
 export function hashInvitationToken(token: string): string {
