@@ -15,6 +15,8 @@ export const authApi = {
   me: () => api.request<MeResponse>('GET', '/api/auth/me', noAuthHook),
   login: (input: LoginInput) => api.post<MeResponse>('/api/auth/login', input, noAuthHook),
   logout: () => api.post<void>('/api/auth/logout', undefined, noAuthHook),
+  /** Ends every session of the user, in every browser (this one too). */
+  logoutEverywhere: () => api.post<void>('/api/auth/logout-everywhere', undefined, noAuthHook),
   changePassword: (input: ChangePasswordInput) => api.post<void>('/api/auth/password', input),
   acceptInvitation: (input: AcceptInvitationInput) =>
     api.post<MeResponse>('/api/auth/invitations/accept', input, noAuthHook),

@@ -70,6 +70,15 @@ export const useSessionStore = defineStore('session', () => {
     }
   }
 
+  /** Sign out in every browser: the server ends all of the user's sessions. */
+  async function logoutEverywhere(): Promise<void> {
+    try {
+      await authApi.logoutEverywhere();
+    } finally {
+      clear();
+    }
+  }
+
   async function acceptInvitation(input: AcceptInvitationInput): Promise<SessionUser> {
     const session = await authApi.acceptInvitation(input);
     setSession(session);
@@ -94,6 +103,7 @@ export const useSessionStore = defineStore('session', () => {
     ensureLoaded,
     login,
     logout,
+    logoutEverywhere,
     acceptInvitation,
     changePassword,
   };
