@@ -16,12 +16,15 @@ import type {
   VerificationOutput,
   VerificationSummary,
 } from 'shared/retrofit';
+import type { z } from 'zod';
+import type { retrofitCreateBody } from 'shared/retrofit';
 import { api } from './client';
 import { uploadForm, type UploadOptions } from './transfer';
 
 export interface RetrofitListFilters {
   status?: RetrofitStatus | undefined;
   siteId?: number | undefined;
+  motorId?: number | undefined;
   overdue?: 'true' | 'false' | undefined;
   page?: number;
   pageSize?: number;
@@ -33,6 +36,8 @@ const path = (id: number) => `/api/retrofits/${id}`;
 export const retrofitsApi = {
   list: (query: RetrofitListFilters = {}) => api.get<ListResult<RetrofitLogItem>>('/api/retrofits', { ...query }),
   get: (id: number) => api.get<RetrofitDetail>(path(id)),
+  /** An engineer's proposal for one motor (the approvers are e-mailed). */
+  create: (body: z.input<typeof retrofitCreateBody>) => api.post<RetrofitDetail>('/api/retrofits', body),
   update: (id: number, body: RetrofitPatch) => api.patch<RetrofitDetail>(path(id), body),
   meterData: (id: number) => api.get<MeterDataOutput>(`${path(id)}/meter-data`),
   verification: (id: number) => api.get<VerificationOutput>(`${path(id)}/verification`),
