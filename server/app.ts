@@ -12,7 +12,6 @@ import session from 'express-session';
 import helmet from 'helmet';
 import passport from 'passport';
 import pg from 'pg';
-import { ConnectionError } from 'sequelize';
 import { authRoutes } from './auth/routes.js';
 import { caseRoutes } from './cases/routes.js';
 import { loadSessionUser } from './auth/session-user.js';
@@ -20,6 +19,7 @@ import { healthRoutes } from './health/routes.js';
 import { intakeRoutes } from './intake/routes.js';
 import { projectRoot, type Config } from './lib/config.js';
 import { verifyCsrf } from './lib/csrf.js';
+import { CONNECT_TIMEOUT_MS, isDatabaseUnavailable } from './lib/database.js';
 import { AppError, tooManyAttempts } from './lib/errors.js';
 import { logger } from './lib/logger.js';
 import type { Mailer } from './lib/mail.js';
@@ -110,7 +110,7 @@ export function createApp(options: AppOptions) {
       super.touch(sid, sess, callback);
     }
   }
-  const sessionPool = new pg.Pool({ connectionString: options.databaseUrl, max: 4 });
+  const sessionPool = new pg.Pool({ connectionString: options.databaseUrl, max: 4, connectionTimeoutMillis: CONNECT_TIMEOUT_MS });
   sessionPool.on('error', (error) => logger.warn('session pool error', { error: error.message }));
   app.use(
     session({
@@ -175,7 +175,7 @@ export function createApp(options: AppOptions) {
     let appError: AppError;
     if (error instanceof AppError) appError = error;
     else if (error instanceof SyntaxError && 'body' in error) appError = new AppError('invalid-json', 'The request body is not valid JSON.', 400);
-    else if (error instanceof ConnectionError || (error as { code?: string }).code === 'ECONNREFUSED') {
+    else if (isDatabaseUnavailable(error)) {
       appError = new AppError('unavailable', 'The database is not answering; try again in a moment.', 503);
     } else if ((error as { type?: string }).type === 'entity.too.large') appError = new AppError('too-large', 'The request body is too large.', 413);
     else {

@@ -11,11 +11,15 @@ import { logger } from '../lib/logger.js';
 import { startMailCatcher, type MailCatcher } from '../lib/mail-catcher.js';
 import { createMailer } from '../lib/mail.js';
 import { ClusterError } from '../lib/postgres-cluster.js';
+import { recoverInterruptedCommits } from '../intake/service.js';
 import { startJobs, stopJobs } from '../jobs/index.js';
 
 async function main(): Promise<void> {
   const config = loadConfig();
   const database = await openDatabase(config, { migrate: true, seed: true });
+  // Import commits cut off by a crash or a database restart become committable again (nothing was written).
+  const interrupted = await recoverInterruptedCommits();
+  if (interrupted.length > 0) logger.warn(`import commit(s) ${interrupted.join(', ')} were interrupted; nothing was written and they can be committed again`);
   let catcher: MailCatcher | undefined;
   try {
     buildClientIfStale(config.clientDir);

@@ -15,8 +15,8 @@
  */
 import { Op, QueryTypes, literal, type Transaction } from 'sequelize';
 import type { z } from 'zod';
-import { database } from '../lib/database.js';
-import { AppError, conflict, notFound } from '../lib/errors.js';
+import { database, isDatabaseUnavailable } from '../lib/database.js';
+import { AppError, conflict, notFound, unavailable } from '../lib/errors.js';
 import { orderFrom, pageWindow } from '../lib/lists.js';
 import type { Tenant } from '../lib/tenant.js';
 import { storeFile, safeFileName } from '../lib/uploads.js';
@@ -296,16 +296,51 @@ async function setProgress(id: number, progress: number): Promise<void> {
   await database().query('UPDATE import_batches SET progress = $1 WHERE id = $2', { bind: [progress, id], type: QueryTypes.UPDATE });
 }
 
+/** Advisory-lock namespace of import commits (business cases lock on a positive organisation id). */
+const COMMIT_LOCK_NAMESPACE = -1;
+const INTERRUPTED_COMMIT = 'The commit was interrupted (the server or its database stopped); nothing was written. Commit again.';
+
+/**
+ * Marks as failed (committable again) every batch left `committing` by a commit that no longer runs:
+ * its process died or its database restarted. A running commit holds its batch's advisory lock from
+ * before the claim to the end of its transaction, in whichever instance runs it, so a free lock means
+ * an interrupted commit. Called by the start command. Answers the batch ids.
+ */
+export async function recoverInterruptedCommits(): Promise<number[]> {
+  const rows = await database().query<{ id: number }>(
+    `WITH committing AS MATERIALIZED (SELECT id FROM import_batches WHERE status = 'committing')
+     UPDATE import_batches SET status = 'failed', progress = 0, failure = :failure, updated_at = now()
+     WHERE id IN (SELECT id FROM committing WHERE pg_try_advisory_xact_lock(:namespace, id)) AND status = 'committing'
+     RETURNING id`,
+    { replacements: { failure: INTERRUPTED_COMMIT, namespace: COMMIT_LOCK_NAMESPACE }, type: QueryTypes.SELECT },
+  );
+  return rows.map((row) => row.id);
+}
+
 export async function commitImport(tenant: Tenant, id: number): Promise<ImportCommitResult> {
   const batch = await tenant.findById(ImportBatch, id, 'Import');
-  // Claim the batch outside the transaction, so a second commit is refused and pollers see it.
-  const [, claimed] = await ImportBatch.update(
-    { status: 'committing', progress: 0, failure: null },
-    { where: tenant.where<ImportBatch>({ id, status: { [Op.in]: ['previewed', 'failed'] } }), returning: true },
-  );
-  if (claimed.length === 0) throw conflict('not-committable', `This import is ${batch.status}; only a preview can be committed.`);
+  // The transaction takes the batch's lock before the claim, so while the batch reads `committing` its
+  // lock is held; a `committing` batch whose lock is free was interrupted and may be claimed again.
+  const transaction = await database().transaction();
   try {
-    const result = await database().transaction(async (transaction) => {
+    const [lock] = await database().query<{ locked: boolean }>('SELECT pg_try_advisory_xact_lock(:namespace, :id) AS locked', {
+      replacements: { namespace: COMMIT_LOCK_NAMESPACE, id },
+      type: QueryTypes.SELECT,
+      transaction,
+    });
+    if (!lock?.locked) throw conflict('not-committable', 'This import is being committed; wait for the commit to finish.');
+    // Claim the batch outside the transaction, so a second commit is refused and pollers see it.
+    const [, claimed] = await ImportBatch.update(
+      { status: 'committing', progress: 0, failure: null },
+      { where: tenant.where<ImportBatch>({ id, status: { [Op.in]: ['previewed', 'failed', 'committing'] } }), returning: true },
+    );
+    if (claimed.length === 0) throw conflict('not-committable', `This import is ${batch.status}; only a preview can be committed.`);
+  } catch (error) {
+    await transaction.rollback().catch(() => undefined);
+    throw error;
+  }
+  try {
+    const result = await (async () => {
       const site = await Site.findOne({ where: tenant.where<Site>({ id: batch.siteId }), transaction, lock: transaction.LOCK.SHARE });
       if (!site) throw notFound('Site');
       const rows = await ImportRow.findAll({
@@ -375,12 +410,22 @@ export async function commitImport(tenant: Tenant, id: number): Promise<ImportCo
       await rememberMapping(tenant, batch.mapping as Mapping, transaction);
       await tenant.audit('commit', 'import', id, { created, updated, skipped: batch.invalidRows }, transaction);
       return { created, updated, skipped: batch.totalRows - rows.length };
-    });
+    })();
+    await transaction.commit();
     return result;
   } catch (error) {
-    const message = error instanceof AppError ? error.message : 'The commit failed; nothing was written.';
-    await ImportBatch.update({ status: error instanceof AppError && error.code === 'nothing-to-commit' ? 'previewed' : 'failed', progress: 0, failure: message }, { where: { id } });
+    // Rolls back unless the commit itself failed (then the transaction is already over).
+    if (!(transaction as unknown as { finished?: string }).finished) await transaction.rollback().catch(() => undefined);
+    const lostDatabase = isDatabaseUnavailable(error);
+    const message = error instanceof AppError ? error.message : lostDatabase ? INTERRUPTED_COMMIT : 'The commit failed; nothing was written.';
+    try {
+      await ImportBatch.update({ status: error instanceof AppError && error.code === 'nothing-to-commit' ? 'previewed' : 'failed', progress: 0, failure: message }, { where: { id } });
+    } catch (markError) {
+      // The database is gone: the batch stays `committing` without its lock, which the next commit or start takes back.
+      if (!isDatabaseUnavailable(markError)) throw markError;
+    }
     if (error instanceof AppError) throw error;
+    if (lostDatabase) throw unavailable('The database stopped answering during the commit; nothing was written. Commit again once it is back.');
     throw new AppError('commit-failed', `The commit failed and nothing was written (${error instanceof Error ? error.message.slice(0, 200) : 'unknown error'}). Try again.`, 500);
   }
 }
