@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { registeredRoutes, type RouteSpec } from '../../server/lib/routing.js';
 import { setUploadDir } from '../../server/lib/uploads.js';
 import { ROLES, type Role } from '../../server/shared/roles.js';
-import { startTestApp, type TestContext } from '../support/api.js';
+import { signIn, startTestApp, type TestContext } from '../support/api.js';
 import { fillPath, isWrite, populateOrganization, routeKey, send, type OrgFixture } from '../support/security.js';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -49,12 +49,21 @@ function expected(spec: RouteSpec, caller: Caller): 'allowed' | 401 | 403 {
 }
 
 /**
- * Sign-out ends the caller's session, so it is walked last; every other route keeps the mounting
- * order (a write that succeeds, such as a discarded import, only changes later answers to 404 or 409).
+ * Sign-out (of this session, or of all the user's sessions) ends the caller's session, so those
+ * routes are walked last; every other route keeps the mounting order (a write that succeeds, such
+ * as a discarded import, only changes later answers to 404 or 409).
  */
+const endsSession = (spec: RouteSpec) => spec.method === 'post' && spec.path.startsWith('/auth/logout');
 function walkOrder(routes: RouteSpec[]): RouteSpec[] {
-  const last = (spec: RouteSpec) => (spec.method === 'post' && spec.path === '/auth/logout' ? 1 : 0);
+  const last = (spec: RouteSpec) => (endsSession(spec) ? 1 : 0);
   return [...routes].sort((a, b) => last(a) - last(b));
+}
+
+async function freshSession(caller: Caller): Promise<{ agent: request.Agent; token: string }> {
+  if (caller !== 'anonymous') return signIn(context.app, fixture.users[caller]);
+  const agent = request.agent(context.app);
+  const csrf = await agent.get('/api/auth/csrf').expect(200);
+  return { agent, token: csrf.body.token as string };
 }
 
 describe('route-by-role matrix', () => {
@@ -97,7 +106,9 @@ describe('route-by-role matrix', () => {
       const session = caller === 'anonymous' ? anonymous : fixture.sessions[caller];
       for (const spec of walkOrder(routes)) {
         const path = fillPath(spec.path, (resource) => fixture.ids[resource]);
-        let test = send(session, spec.method, path);
+        // A sign-out route gets a session of its own, so one sign-out cannot hide the next.
+        const caller_ = endsSession(spec) ? await freshSession(caller) : session;
+        let test = send(caller_, spec.method, path);
         if (isWrite(spec)) test = test.send({});
         const response = await test;
         const want = expected(spec, caller);
