@@ -12,13 +12,14 @@
  *   as it is. Rejection leaves the proposals untouched: management rejected this package, not the
  *   engineer's findings, which may be re-packaged in a new version.
  */
-import { Op, QueryTypes, type CreationAttributes, type Transaction } from 'sequelize';
+import { literal, Op, QueryTypes, type CreationAttributes, type Transaction } from 'sequelize';
 import { database } from '../lib/database.js';
 import { AppError, conflict } from '../lib/errors.js';
 import { orderFrom, pageWindow } from '../lib/lists.js';
 import type { Mailer } from '../lib/mail.js';
 import type { Tenant } from '../lib/tenant.js';
 import { BusinessCase, CaseSend, Motor, Organization, Retrofit, RetrofitEvent, Site, User } from '../models/index.js';
+import type { CaseInputs } from '../models/business-case.js';
 import type { ListResult } from '../shared/common.js';
 import type { CaseCreate, CaseDecided, CaseDecisionInput, CaseListQuery, CaseOutput, CaseSend as CaseSendInput, CaseSent, CaseSummary } from '../shared/case.js';
 import { registerInputs } from './inputs.js';
@@ -56,10 +57,21 @@ function summaryOf(row: BusinessCase, people: People): CaseSummary {
   };
 }
 
-async function outputOf(row: BusinessCase): Promise<CaseOutput> {
+/** What the report shows of a case's inputs: everything but the motors themselves, only their count. */
+type InputsDigest = Pick<CaseInputs, 'sites' | 'priceBook' | 'assumptions'> & { motorCount: number };
+
+const digestOf = (inputs: CaseInputs): InputsDigest => ({ sites: inputs.sites, priceBook: inputs.priceBook, assumptions: inputs.assumptions, motorCount: inputs.motors.length });
+
+/**
+ * The digest computed by PostgreSQL, so reading a report does not fetch and parse every motor's
+ * input (the bulk of `inputs`: about as large as the results for a big site).
+ */
+const INPUTS_DIGEST_SQL = `jsonb_build_object('sites', inputs -> 'sites', 'priceBook', inputs -> 'priceBook', 'assumptions', inputs -> 'assumptions', 'motorCount', jsonb_array_length(inputs -> 'motors'))`;
+
+async function outputOf(row: BusinessCase, inputs: InputsDigest = digestOf(row.inputs)): Promise<CaseOutput> {
   const sends = await CaseSend.findAll({ where: { caseId: row.id }, order: [['sentAt', 'ASC']] });
   const people = await peopleOf([row.createdBy, row.decidedBy, ...sends.map((send) => send.sentBy)]);
-  const siteInputs = row.inputs.sites.map((site) => {
+  const siteInputs = inputs.sites.map((site) => {
     const input = site.input as { energyPricePerKwh?: number; co2KgPerKwh?: number; defaultHoursPerYear?: number };
     return { id: site.id, name: site.name, currency: site.currency, energyPricePerKwh: input.energyPricePerKwh ?? 0, co2KgPerKwh: input.co2KgPerKwh ?? 0, defaultHoursPerYear: input.defaultHoursPerYear ?? 0 };
   });
@@ -68,9 +80,9 @@ async function outputOf(row: BusinessCase): Promise<CaseOutput> {
     results: row.results,
     basis: {
       sites: siteInputs,
-      motorCount: row.inputs.motors.length,
-      priceBook: row.inputs.priceBook ? 'organisation' : 'calc defaults',
-      assumptions: row.inputs.assumptions ? 'organisation' : 'calc defaults',
+      motorCount: inputs.motorCount,
+      priceBook: inputs.priceBook ? 'organisation' : 'calc defaults',
+      assumptions: inputs.assumptions ? 'organisation' : 'calc defaults',
     },
     sends: sends.map((send) => sendOutput(send, people)),
   };
@@ -145,7 +157,10 @@ export async function latestCases(tenant: Tenant, limit = 5): Promise<CaseSummar
 }
 
 export async function getCase(tenant: Tenant, id: number): Promise<CaseOutput> {
-  return outputOf(await tenant.findById(BusinessCase, id, 'Business case'));
+  const row = await tenant.findById(BusinessCase, id, 'Business case', {
+    attributes: { exclude: ['inputs'], include: [[literal(INPUTS_DIGEST_SQL), 'inputsDigest']] },
+  });
+  return outputOf(row, row.get('inputsDigest' as keyof BusinessCase) as unknown as InputsDigest);
 }
 
 export async function caseRow(tenant: Tenant, id: number): Promise<BusinessCase> {
