@@ -13,7 +13,7 @@ export const STATUS_LABELS: Readonly<Record<RetrofitStatus, string>> = {
   approved: 'Approved',
   ordered: 'Ordered',
   installed: 'Installed',
-  verified: 'Savings verified',
+  verified: 'Verified',
   rejected: 'Rejected',
 };
 
