@@ -85,3 +85,13 @@ export function wallClock(iso: string): string {
 export function formatPct(value: number | null): string {
   return value === null ? '—' : `${formatNumber(value, Math.abs(value) < 10 ? 1 : 0)} %`;
 }
+
+/**
+ * A colour class for a realised share, judged on the figure as shown (rounded): 85 % or more is as
+ * predicted within the usual spread of M&V, below 60 % calls for a look at the installation or the data.
+ * Our own bands, no standard sets them.
+ */
+export function realisedColour(pct: number): string {
+  const shown = Math.round(pct);
+  return shown >= 85 ? 'text-positive' : shown >= 60 ? 'text-warning' : 'text-negative';
+}

@@ -145,10 +145,13 @@ describe('Retrofit log: propose, approve, order, install, meter, verify', () => 
     await signInAs(page, 'engineer@kestrel.example');
     await page.goto(retrofitUrl);
     await page.getByTestId('retrofit-transition-ordered').click();
-    await field(page, 'retrofit-due-date').fill(isoDay(daysAgo(-30)));
+    await field(page, 'retrofit-order-date').fill(isoDay(daysAgo(50)));
+    await field(page, 'retrofit-due-date').fill(isoDay(daysAgo(15)));
     await page.getByTestId('retrofit-transition-confirm').click();
     await expect.poll(() => page.getByTestId('retrofit-status').innerText(), { timeout: 20_000 }).toBe('Ordered');
     expect(await page.getByTestId('retrofit-step-ordered').getAttribute('data-state')).toBe('current');
+    // Its installation was due 15 days ago: flagged overdue, here and in the list.
+    expect(await page.getByTestId('retrofit-overdue-banner').innerText()).toContain(`installation was due on ${isoDay(daysAgo(15))}`);
 
     const broken = ['timestamp,Power [kW]', '2026-10-01 00:00,12.1', '2026-10-01 00:00,12.2', '01/10/2026 02:00,12.0', '2026-10-01 03:00,abc'].join('\n');
     await fileInput(page, 'retrofit-meter-baseline-file').setInputFiles({ name: 'broken.csv', mimeType: 'text/csv', buffer: Buffer.from(broken) });
