@@ -5,7 +5,7 @@ import { caseCreateBody, caseDecided, caseDecisionBody, caseExportQuery, caseLis
 import { idParams } from '../shared/common.js';
 import { EDITORS } from '../shared/roles.js';
 import { casePdf } from './pdf.js';
-import { caseRow, createCase, decideCase, exportFileName, getCase, listCases, sendCase } from './service.js';
+import { caseRow, createCase, decideCase, exportFileName, getCaseJson, listCases, sendCase } from './service.js';
 import { caseWorkbook } from './xlsx.js';
 
 const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
@@ -42,7 +42,12 @@ export function caseRoutes(mailer: Mailer, publicUrl: string): RouteSpec[] {
       access: 'signed-in',
       params: idParams,
       response: caseOutput,
-      handler: ({ tenant, params }) => getCase(tenant, params.id),
+      // Sent as text: the stored results go out without being parsed and serialised again (getCaseJson).
+      handler: async ({ tenant, params, res }) => {
+        const json = await getCaseJson(tenant, params.id);
+        res.setHeader('Content-Type', 'application/json; charset=utf-8');
+        res.status(200).end(json);
+      },
     }),
     route({
       method: 'get',

@@ -163,6 +163,52 @@ export async function getCase(tenant: Tenant, id: number): Promise<CaseOutput> {
   return outputOf(row, row.get('inputsDigest' as keyof BusinessCase) as unknown as InputsDigest);
 }
 
+/**
+ * Recently read results as JSON text, by case id, least recently used first. A case's results never
+ * change after generation (only status, decision and sendings do), so the text can be kept: reading
+ * a report then moves no megabytes through JSON.parse and JSON.stringify (a 4,000-motor site's
+ * results are about 3 MB; under 200 concurrent readers that was the whole cost, see
+ * tests/bench/load.bench.ts). Bounded by RESULTS_CACHE_BYTES per process.
+ */
+const resultsCache = new Map<number, string>();
+const RESULTS_CACHE_BYTES = 64 * 1024 * 1024;
+let resultsCacheBytes = 0;
+
+async function resultsText(id: number): Promise<string> {
+  const cached = resultsCache.get(id);
+  if (cached !== undefined) {
+    resultsCache.delete(id);
+    resultsCache.set(id, cached);
+    return cached;
+  }
+  const [row] = await database().query<{ results: string }>('SELECT results::text AS results FROM business_cases WHERE id = :id', {
+    replacements: { id },
+    type: QueryTypes.SELECT,
+  });
+  if (!row) throw new AppError('not-found', 'Business case not found.', 404);
+  resultsCache.set(id, row.results);
+  resultsCacheBytes += row.results.length;
+  for (const [oldId, text] of resultsCache) {
+    if (resultsCacheBytes <= RESULTS_CACHE_BYTES || oldId === id) break;
+    resultsCache.delete(oldId);
+    resultsCacheBytes -= text.length;
+  }
+  return row.results;
+}
+
+/**
+ * `GET /api/cases/:id` as JSON text: the document of getCase, its stored results spliced in as the
+ * text PostgreSQL (or the cache) holds. The organisation check is the row read through the tenant.
+ */
+export async function getCaseJson(tenant: Tenant, id: number): Promise<string> {
+  const row = await tenant.findById(BusinessCase, id, 'Business case', {
+    attributes: { exclude: ['inputs', 'results'], include: [[literal(INPUTS_DIGEST_SQL), 'inputsDigest']] },
+  });
+  const { results: _notLoaded, ...rest } = await outputOf(row, row.get('inputsDigest' as keyof BusinessCase) as unknown as InputsDigest);
+  const head = JSON.stringify(rest);
+  return `${head.slice(0, -1)},"results":${await resultsText(row.id)}}`;
+}
+
 export async function caseRow(tenant: Tenant, id: number): Promise<BusinessCase> {
   return tenant.findById(BusinessCase, id, 'Business case');
 }
