@@ -176,6 +176,7 @@ export function createApp(options: AppOptions) {
     if (error instanceof AppError) appError = error;
     else if (error instanceof SyntaxError && 'body' in error) appError = new AppError('invalid-json', 'The request body is not valid JSON.', 400);
     else if (isDatabaseUnavailable(error)) {
+      logger.warn('database unavailable', { path: req.path, error: error instanceof Error ? error.message : String(error) });
       appError = new AppError('unavailable', 'The database is not answering; try again in a moment.', 503);
     } else if ((error as { type?: string }).type === 'entity.too.large') appError = new AppError('too-large', 'The request body is too large.', 413);
     else {

@@ -10,7 +10,7 @@ pg.types.setTypeParser(20, (value) => Number.parseInt(value, 10));
 let current: Sequelize | undefined;
 
 /** How long opening a connection may take before the request fails as unavailable [ms]. */
-export const CONNECT_TIMEOUT_MS = 5_000;
+export const CONNECT_TIMEOUT_MS = 10_000;
 
 /** Network errors and SQLSTATEs that mean "the database is not there right now" (stopped, restarting, unreachable), not "the query is wrong". */
 const UNAVAILABLE_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENOTFOUND', '57P01', '57P02', '57P03']);
