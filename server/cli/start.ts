@@ -49,9 +49,10 @@ async function main(): Promise<void> {
     stopping = true;
     logger.info(`${signal}: stopping — letting requests in flight finish`);
     const forced = setTimeout(() => server.closeAllConnections(), 10_000);
-    await new Promise<void>((resolve) => server.close(() => resolve()));
+    // The job runner stops claiming at once (its running jobs go back to the queue, resumable) while
+    // the HTTP server drains; no request waits on a job, so neither needs the other first.
+    await Promise.all([new Promise<void>((resolve) => server.close(() => resolve())), stopJobs()]);
     clearTimeout(forced);
-    await stopJobs();
     mailer.close();
     await catcher?.close();
     await closeApp();
