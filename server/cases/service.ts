@@ -164,49 +164,51 @@ export async function getCase(tenant: Tenant, id: number): Promise<CaseOutput> {
 }
 
 /**
- * Recently read results as JSON text, by case id, least recently used first. A case's results never
+ * Recently read reports' immutable parts (results as JSON text, the inputs' digest), by case id, least
+ * recently used first. A case's results never
  * change after generation (only status, decision and sendings do), so the text can be kept: reading
  * a report then moves no megabytes through JSON.parse and JSON.stringify (a 4,000-motor site's
  * results are about 3 MB; under 200 concurrent readers that was the whole cost, see
  * tests/bench/load.bench.ts). Bounded by RESULTS_CACHE_BYTES per process.
  */
-const resultsCache = new Map<number, string>();
+const resultsCache = new Map<number, { inputs: InputsDigest; results: string }>();
 const RESULTS_CACHE_BYTES = 64 * 1024 * 1024;
 let resultsCacheBytes = 0;
 
-async function resultsText(id: number): Promise<string> {
+/** The immutable parts of a case for its report: the inputs' digest and the results as JSON text. */
+async function immutableParts(id: number): Promise<{ inputs: InputsDigest; results: string }> {
   const cached = resultsCache.get(id);
   if (cached !== undefined) {
     resultsCache.delete(id);
     resultsCache.set(id, cached);
     return cached;
   }
-  const [row] = await database().query<{ results: string }>('SELECT results::text AS results FROM business_cases WHERE id = :id', {
+  const [row] = await database().query<{ inputs: InputsDigest; results: string }>(`SELECT ${INPUTS_DIGEST_SQL} AS inputs, results::text AS results FROM business_cases WHERE id = :id`, {
     replacements: { id },
     type: QueryTypes.SELECT,
   });
   if (!row) throw new AppError('not-found', 'Business case not found.', 404);
-  resultsCache.set(id, row.results);
+  resultsCache.set(id, row);
   resultsCacheBytes += row.results.length;
-  for (const [oldId, text] of resultsCache) {
+  for (const [oldId, parts] of resultsCache) {
     if (resultsCacheBytes <= RESULTS_CACHE_BYTES || oldId === id) break;
     resultsCache.delete(oldId);
-    resultsCacheBytes -= text.length;
+    resultsCacheBytes -= parts.results.length;
   }
-  return row.results;
+  return row;
 }
 
 /**
  * `GET /api/cases/:id` as JSON text: the document of getCase, its stored results spliced in as the
- * text PostgreSQL (or the cache) holds. The organisation check is the row read through the tenant.
+ * text PostgreSQL (or the cache) holds. The organisation check is the row read through the tenant
+ * (its small columns only: status, decision and sendings are always read fresh).
  */
 export async function getCaseJson(tenant: Tenant, id: number): Promise<string> {
-  const row = await tenant.findById(BusinessCase, id, 'Business case', {
-    attributes: { exclude: ['inputs', 'results'], include: [[literal(INPUTS_DIGEST_SQL), 'inputsDigest']] },
-  });
-  const { results: _notLoaded, ...rest } = await outputOf(row, row.get('inputsDigest' as keyof BusinessCase) as unknown as InputsDigest);
+  const row = await tenant.findById(BusinessCase, id, 'Business case', { attributes: { exclude: ['inputs', 'results'] } });
+  const parts = await immutableParts(row.id);
+  const { results: _notLoaded, ...rest } = await outputOf(row, parts.inputs);
   const head = JSON.stringify(rest);
-  return `${head.slice(0, -1)},"results":${await resultsText(row.id)}}`;
+  return `${head.slice(0, -1)},"results":${parts.results}}`;
 }
 
 export async function caseRow(tenant: Tenant, id: number): Promise<BusinessCase> {
