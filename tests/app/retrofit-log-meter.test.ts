@@ -92,9 +92,10 @@ describe('RetrofitLogMeterPeriod', () => {
         details: {
           rows: 3,
           errorCount: 2,
+          // The server lists duplicates after the other checks; the table sorts by row.
           errors: [
-            { row: 3, field: 'timestamp', value: '2026-03-02 00:00', message: 'duplicated timestamp (also on row 2)' },
             { row: 4, field: 'value', value: 'abc', message: 'is not a number' },
+            { row: 3, field: 'timestamp', value: '2026-03-02 00:00', message: 'duplicated timestamp (also on row 2)' },
           ],
           gaps: [],
         },
