@@ -5,7 +5,7 @@ import { caseCreateBody, caseDecided, caseDecisionBody, caseExportQuery, caseLis
 import { idParams } from '../shared/common.js';
 import { EDITORS } from '../shared/roles.js';
 import { casePdf } from './pdf.js';
-import { caseRow, createCase, decideCase, exportFileName, getCaseJson, listCases, sendCase } from './service.js';
+import { caseRow, createCase, decideCase, exportFileName, getCaseJson, getCaseJsonGzip, listCases, sendCase } from './service.js';
 import { caseWorkbook } from './xlsx.js';
 
 const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
@@ -42,11 +42,16 @@ export function caseRoutes(mailer: Mailer, publicUrl: string): RouteSpec[] {
       access: 'signed-in',
       params: idParams,
       response: caseOutput,
-      // Sent as text: the stored results go out without being parsed and serialised again (getCaseJson).
-      handler: async ({ tenant, params, res }) => {
-        const json = await getCaseJson(tenant, params.id);
+      // Sent as text: the stored results go out without being parsed and serialised again (getCaseJson),
+      // gzipped once per state of the case for clients that accept it (getCaseJsonGzip).
+      handler: async ({ tenant, params, req, res }) => {
+        const gzip = /\bgzip\b/.test(req.get('accept-encoding') ?? '');
+        // Headers only once the body is there: a 404 goes out through the error handler, uncompressed.
+        const body = gzip ? await getCaseJsonGzip(tenant, params.id) : await getCaseJson(tenant, params.id);
         res.setHeader('Content-Type', 'application/json; charset=utf-8');
-        res.status(200).end(json);
+        res.setHeader('Vary', 'Accept-Encoding');
+        if (gzip) res.setHeader('Content-Encoding', 'gzip');
+        res.status(200).end(body);
       },
     }),
     route({

@@ -12,6 +12,8 @@
  *   as it is. Rejection leaves the proposals untouched: management rejected this package, not the
  *   engineer's findings, which may be re-packaged in a new version.
  */
+import { promisify } from 'node:util';
+import { gzip } from 'node:zlib';
 import { literal, Op, QueryTypes, type CreationAttributes, type Transaction } from 'sequelize';
 import { database } from '../lib/database.js';
 import { AppError, conflict } from '../lib/errors.js';
@@ -25,6 +27,8 @@ import type { CaseCreate, CaseDecided, CaseDecisionInput, CaseListQuery, CaseOut
 import { registerInputs } from './inputs.js';
 import { casePdf } from './pdf.js';
 import { computeCase } from './snapshot.js';
+
+const gzipAsync = promisify(gzip);
 
 /** Columns of a list row: never the (large) inputs and results. */
 const SUMMARY_ATTRIBUTES = ['id', 'organizationId', 'scope', 'siteId', 'version', 'status', 'title', 'currency', 'headline', 'createdBy', 'decidedBy', 'decidedAt', 'decisionComment', 'lastSentAt', 'createdAt', 'updatedAt'] as const;
@@ -204,11 +208,38 @@ async function immutableParts(id: number): Promise<{ inputs: InputsDigest; resul
  * (its small columns only: status, decision and sendings are always read fresh).
  */
 export async function getCaseJson(tenant: Tenant, id: number): Promise<string> {
+  const { head, results } = await caseParts(tenant, id);
+  return spliceResults(head, results);
+}
+
+/** The document of getCase without its results as JSON text (what changes: status, decision, sendings), and the results' text. */
+async function caseParts(tenant: Tenant, id: number): Promise<{ rowId: number; head: string; results: string }> {
   const row = await tenant.findById(BusinessCase, id, 'Business case', { attributes: { exclude: ['inputs', 'results'] } });
   const parts = await immutableParts(row.id);
   const { results: _notLoaded, ...rest } = await outputOf(row, parts.inputs);
-  const head = JSON.stringify(rest);
-  return `${head.slice(0, -1)},"results":${parts.results}}`;
+  return { rowId: row.id, head: JSON.stringify(rest), results: parts.results };
+}
+
+const spliceResults = (head: string, results: string) => `${head.slice(0, -1)},"results":${results}}`;
+
+/**
+ * The same document gzipped, for clients that accept it (every browser). A site's report is megabytes
+ * of JSON that compress about tenfold; compressing it on every read cost more than the read itself,
+ * so the last compressed document of each case is kept and reused while its head (status, decision,
+ * sendings) is unchanged. The organisation check still runs on every read (caseParts).
+ */
+const gzipped = new Map<number, { head: string; body: Buffer }>();
+const GZIP_CACHE_CASES = 32;
+
+export async function getCaseJsonGzip(tenant: Tenant, id: number): Promise<Buffer> {
+  const { rowId, head, results } = await caseParts(tenant, id);
+  const cached = gzipped.get(rowId);
+  if (cached && cached.head === head) return cached.body;
+  const body = await gzipAsync(spliceResults(head, results));
+  gzipped.delete(rowId);
+  gzipped.set(rowId, { head, body });
+  if (gzipped.size > GZIP_CACHE_CASES) gzipped.delete(gzipped.keys().next().value as number);
+  return body;
 }
 
 export async function caseRow(tenant: Tenant, id: number): Promise<BusinessCase> {

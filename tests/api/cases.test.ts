@@ -330,6 +330,8 @@ describe('business cases', () => {
     const proposedMotor = (await Motor.findOne({ where: { organizationId: organization.id, tag: snapshot.results.items.find((i) => i.optionCode !== 'keep')!.tag } }))!;
     const proposal = await Retrofit.create({ organizationId: organization.id, motorId: proposedMotor.id, optionCode: 'ie3', source: 'manual', jobId: null, predictedSavingsKwh: 1, predictedSavingsCost: 1, capex: 1, npv: 1, currency: 'EUR', createdBy: engineer.id });
     const session = await signIn(context.app, engineer);
+    const draft = await session.get(`/api/cases/${snapshot.id}`).set('Accept-Encoding', 'gzip').expect(200);
+    expect(draft.body.status).toBe('draft');
     const sent = await session.post(`/api/cases/${snapshot.id}/send`).send({ to: ['finance.officer@test.example'] });
     expect(sent.status, JSON.stringify(sent.body)).toBe(200);
     expect(sent.body.case.status).toBe('sent');
@@ -360,6 +362,14 @@ describe('business cases', () => {
     const twice = await approverSession.post(`/api/cases/${snapshot.id}/decision`).send({ decision: 'rejected', comment: 'No.' });
     expect(twice.status).toBe(409);
     expect(twice.body.error.code).toBe('already-decided');
+
+    // The report is gzipped for clients that accept it, and the kept copy follows the decision.
+    const zipped = await approverSession.get(`/api/cases/${snapshot.id}`).set('Accept-Encoding', 'gzip').expect(200);
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.body.status).toBe('approved');
+    const plain = await approverSession.get(`/api/cases/${snapshot.id}`).set('Accept-Encoding', 'identity').expect(200);
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(zipped.body).toEqual(plain.body);
 
     const overview = await approverSession.get('/api/overview').expect(200);
     const siteRow = overview.body.sites.find((s: { id: number }) => s.id === site.id);

@@ -331,7 +331,14 @@ async function main(): Promise<void> {
             setupClient: (client: AutocannonClient) => {
               const session = sessions[connection % sessions.length]!;
               connection += 1;
-              const headers = { cookie: session.cookie, 'x-csrf-token': session.csrf, 'content-type': 'application/json', accept: 'application/json' };
+              // As a browser sends them (every browser accepts gzip; the case report is then sent compressed).
+              const headers = {
+                cookie: session.cookie,
+                'x-csrf-token': session.csrf,
+                'content-type': 'application/json',
+                accept: 'application/json',
+                'accept-encoding': 'gzip, deflate, br',
+              };
               client.setRequests([{ headers, setupRequest: (request) => ({ ...request, ...scenario.request(), headers }) }]);
             },
           },
