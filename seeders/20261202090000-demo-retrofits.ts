@@ -98,13 +98,13 @@ export const DEMO_RETROFITS: RetrofitPlan[] = [
     status: 'verified',
     timeline: { proposed: 150, approved: 143, ordered: 140, installed: 100, verified: 30 },
     comments: {
-      proposed: 'Inlet vanes throttle this evaporator fan most of the night; a drive and a permanent-magnet motor follow the chamber load instead.',
-      approved: 'Approved. Fit it during the January defrost shutdown.',
+      proposed: 'Inlet vanes throttle this exhaust fan most of its hours; a drive and a permanent-magnet motor would set the airflow instead.',
+      approved: 'Approved. Fit it at the next planned stop of the condenser deck.',
       ordered: 'Ordered with the drive; lead time five weeks.',
       installed: 'Installed; inlet vanes locked fully open.',
-      verified: 'Eight weeks after the installation the savings hold; verified.',
+      verified: 'Three weeks of reporting data confirm the savings; verified.',
     },
-    notes: 'Chamber 3 evaporator fan. Meter: the fan’s own sub-meter on the MCC, hourly export.',
+    notes: 'Condenser deck exhaust fan. Meter: the fan’s own sub-meter on the MCC, hourly export.',
     orderDaysAgo: 140,
     expectedInstallationDaysAgo: 104,
     installationDaysAgo: 100,
@@ -123,12 +123,12 @@ export const DEMO_RETROFITS: RetrofitPlan[] = [
     status: 'installed',
     timeline: { proposed: 95, approved: 90, ordered: 88, installed: 45 },
     comments: {
-      proposed: 'The CIP return pump runs against a half-closed valve; a drive would set the flow instead.',
+      proposed: 'This circulation pump runs against a half-closed valve; a drive would set the flow instead.',
       approved: 'Approved; keep the valve as a bypass for the first month.',
       ordered: 'Ordered from the framework supplier.',
       installed: 'Installed and commissioned; valve left fully open.',
     },
-    notes: 'CIP return pump. Meter: clamp-on logger at the motor starter, 15-minute mean power.',
+    notes: 'Packing hall circulation pump. Meter: clamp-on logger at the motor starter, 15-minute mean power.',
     orderDaysAgo: 88,
     expectedInstallationDaysAgo: 48,
     installationDaysAgo: 45,
@@ -146,11 +146,11 @@ export const DEMO_RETROFITS: RetrofitPlan[] = [
     status: 'ordered',
     timeline: { proposed: 40, approved: 34, ordered: 20 },
     comments: {
-      proposed: 'Aeration blower on inlet vanes, old IE1 motor: the largest saving at the works.',
-      approved: 'Approved; coordinate with the process team so lane 2 keeps its oxygen set-point.',
+      proposed: 'Old IE1 fan on inlet vanes running most of the year: a large saving for the works.',
+      approved: 'Approved; plan the changeover with the operations team.',
       ordered: 'Ordered; the supplier confirmed delivery in three weeks.',
     },
-    notes: 'Aeration lane 2 blower.',
+    notes: 'Inlet works fan.',
     orderDaysAgo: 20,
     expectedInstallationDaysAgo: -24,
     baseline: { fromDaysAgo: 17, days: 14, intervalMinutes: 60, startHour: 0, weekdayHours: [19, 22], weekendHours: [19, 22], seed: 6101 },
@@ -163,10 +163,10 @@ export const DEMO_RETROFITS: RetrofitPlan[] = [
     status: 'approved',
     timeline: { proposed: 12, approved: 5 },
     comments: {
-      proposed: 'Engine-room compressor motor runs almost all year; an IE5 motor on the same frame.',
-      approved: 'Approved; order it with the spring maintenance parts.',
+      proposed: 'This refrigeration compressor motor runs almost all year; an IE5 motor on the same frame.',
+      approved: 'Approved; order it with the next maintenance parts.',
     },
-    notes: 'Engine room, compressor 2.',
+    notes: 'Chill dock refrigeration compressor.',
   },
   {
     key: 'proposed',
@@ -175,8 +175,8 @@ export const DEMO_RETROFITS: RetrofitPlan[] = [
     optionCode: 'bldc-vsd',
     status: 'proposed',
     timeline: { proposed: 6 },
-    comments: { proposed: 'Boiler-house fan on inlet vanes: the best net present value on the dairy site.' },
-    notes: 'Boiler-house combustion air fan.',
+    comments: { proposed: 'IE1 supply air fan throttled by inlet vanes; the assessment pays back in under a year.' },
+    notes: 'CIP station supply air fan.',
   },
 ];
 
@@ -189,7 +189,7 @@ const isoDay = (ms: number) => {
 /**
  * Invented meter CSV of one period: mean power per interval [kW]. Each day the motor starts at
  * `startHour` and runs the day's hours (more on weekdays), at `runningKw` shaped by the time of day
- * (a little more in the afternoon) with a small ripple; stopped, the meter reads a standby of about
+ * (a little more in the afternoon), the day's demand (±6 %) and a ripple (±4 %); stopped, the meter reads a standby of about
  * 1 % of the rating.
  */
 export function demoMeterCsv(plan: MeterPlan, todayMs: number, runningKw: number, ratedPowerKw: number): string {
@@ -202,13 +202,15 @@ export function demoMeterCsv(plan: MeterPlan, todayMs: number, runningKw: number
     const weekday = new Date(dayMs).getUTCDay();
     const [low, high] = weekday === 0 || weekday === 6 ? plan.weekendHours : plan.weekdayHours;
     const runHours = Math.round((low + (high - low) * random()) * 4) / 4;
+    // The day's demand (flow, chamber load) moves the running power a few per cent from day to day.
+    const dayLevel = 1 + 0.06 * (2 * random() - 1);
     for (let step = 0; step < 24 * perHour; step += 1) {
       const hour = step / perHour;
       const ripple = 2 * random() - 1;
       if (plan.outage && plan.outage[0] === day && hour >= plan.outage[1] && hour < plan.outage[1] + plan.outage[2]) continue;
       const running = hour >= plan.startHour && hour < plan.startHour + runHours;
       const kw = running
-        ? runningKw * (1 + 0.05 * Math.sin((2 * Math.PI * (hour - 9)) / 24)) * (1 + 0.02 * ripple)
+        ? runningKw * dayLevel * (1 + 0.05 * Math.sin((2 * Math.PI * (hour - 9)) / 24)) * (1 + 0.04 * ripple)
         : ratedPowerKw * 0.01 * (1 + 0.1 * ripple);
       const stamp = new Date(dayMs + hour * HOUR_MS);
       lines.push(`${isoDay(stamp.getTime())} ${pad(stamp.getUTCHours())}:${pad(stamp.getUTCMinutes())},${kw.toFixed(3)}`);

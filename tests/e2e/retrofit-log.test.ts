@@ -2,8 +2,8 @@
  * End to end in chromium: an engineer proposes a retrofit from a motor's page, the approver approves
  * it, the engineer records the order, uploads a broken and then a good baseline meter file, records
  * the installation (nameplate, installer, a photo), uploads the reporting period, reads the realised
- * savings on the retrofit and on the Overview, and confirms them as verified. The demo seeds no
- * retrofit, so the test makes its own on a wastewater pump that has none.
+ * savings on the retrofit and on the Overview, and confirms them as verified. The demo seeds five
+ * retrofits, none on a wastewater pump of 7.5–45 kW, so the test makes its own on one of those.
  */
 import { existsSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
