@@ -2,6 +2,7 @@
  * The Express application: security headers, sessions in PostgreSQL, passport, CSRF, the API
  * routes, the OpenAPI document, the built client, and the one error handler.
  */
+import compression from 'compression';
 import { randomBytes } from 'node:crypto';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -62,6 +63,9 @@ export function createApp(options: AppOptions) {
 
   // A fresh nonce per response lets the charting library add its own <style> elements (it takes
   // the nonce from the page) while every other inline style stays forbidden.
+  // Text answers (the client's scripts and styles, JSON) go out compressed, as every browser accepts.
+  // Not the sign-in answers: they carry the CSRF token, which a compressed reply could leak (BREACH).
+  app.use(compression({ filter: (req, res) => !req.path.startsWith('/api/auth/') && compression.filter(req, res) }));
   app.use((_req, res, next) => {
     res.locals.cspNonce = randomBytes(16).toString('base64');
     next();

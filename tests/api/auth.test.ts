@@ -121,4 +121,15 @@ describe('security headers', () => {
     expect(response.headers['x-content-type-options']).toBe('nosniff');
     expect(response.body).toEqual({ status: 'ok', database: 'up' });
   });
+
+  it('compresses text answers for clients that accept it, but never the answers that carry the CSRF token', async () => {
+    const { agent } = await csrfAgent();
+    const big = await agent.get('/api/openapi.json').set('Accept-Encoding', 'gzip').expect(200);
+    expect(big.headers['content-encoding']).toBe('gzip');
+    expect(big.body.openapi).toMatch(/^3\./);
+    const plain = await agent.get('/api/openapi.json').set('Accept-Encoding', 'identity').expect(200);
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    const token = await agent.get('/api/auth/csrf').set('Accept-Encoding', 'gzip').expect(200);
+    expect(token.headers['content-encoding']).toBeUndefined();
+  });
 });
