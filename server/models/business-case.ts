@@ -44,7 +44,7 @@ export class BusinessCase extends Model<InferAttributes<BusinessCase>, InferCrea
         currency: { type: DataTypes.CHAR(3), allowNull: false },
         headline: { type: DataTypes.JSONB, allowNull: false },
         inputs: { type: DataTypes.JSONB, allowNull: false },
-        results: { type: DataTypes.JSONB, allowNull: false },
+        results: { type: DataTypes.JSON, allowNull: false },
         createdBy: { type: DataTypes.INTEGER, allowNull: true },
         decidedBy: { type: DataTypes.INTEGER, allowNull: true },
         decidedAt: { type: DataTypes.DATE, allowNull: true },
