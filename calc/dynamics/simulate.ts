@@ -419,6 +419,8 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
   private stepPendingTime: number;
   private stepPendingSpeed: number;
   private refineEvent = 0;
+  /** Least of the event values eventValues last wrote [mixed units]; NaN values are left out. */
+  private leastEventValue = Infinity;
   private stateEvents = 0;
   private timeEvents = 0;
   private readonly tolerance: number;
@@ -528,10 +530,13 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       const h = tEnd - this.t;
       this.tau = h;
       this.trial(-1);
-      for (let j = 0; j < Event.Count; j++) {
-        if (this.crossed(j)) {
-          plain = false;
-          break;
+      // Every crossing ends at a value ≤ 0 (see crossed), so a positive least value means none.
+      if (!(this.leastEventValue > 0)) {
+        for (let j = 0; j < Event.Count; j++) {
+          if (this.crossed(j)) {
+            plain = false;
+            break;
+          }
         }
       }
       if (plain) this.commit(h);
@@ -786,6 +791,7 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
    */
   private eventValues(x: Float64Array, aux: Float64Array, out: Float64Array): void {
     const vdc = x[State.DcBus] as number;
+    let least = Infinity;
     for (let k = 0; k < 3; k++) {
       const mode = this.legMode[k];
       let value = Infinity;
@@ -797,11 +803,14 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
         value = toHigh < terminal ? toHigh : terminal;
       }
       out[k] = value;
+      if (value < least) least = value;
     }
     const theta = x[State.Angle] as number;
     const fromPrev = theta - this.thetaPrev;
     const toNext = this.thetaNext - theta;
-    out[Event.Hall] = fromPrev < toNext ? fromPrev : toNext;
+    const hall = fromPrev < toNext ? fromPrev : toNext;
+    out[Event.Hall] = hall;
+    if (hall < least) least = hall;
     if (!this.input.hysteresis || !Number.isFinite(this.currentRef)) out[Event.Hysteresis] = Infinity;
     else {
       const ia = Math.abs(x[State.CurrentA] as number);
@@ -809,11 +818,18 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       const ic = Math.abs(x[State.CurrentA + 2] as number);
       const measured = ia > ib ? (ia > ic ? ia : ic) : ib > ic ? ib : ic;
       const half = 0.5 * this.input.bandA;
-      out[Event.Hysteresis] = this.hysteresisOn ? this.currentRef + half - measured : measured - (this.currentRef - half);
+      const band = this.hysteresisOn ? this.currentRef + half - measured : measured - (this.currentRef - half);
+      out[Event.Hysteresis] = band;
+      if (band < least) least = band;
     }
     const speed = x[State.Speed] as number;
-    out[Event.Standstill] = this.input.load.kind === LoadKindIndex.Constant && this.input.load.active === 1 ? speed : Infinity;
-    out[Event.LoadStep] = this.stepPendingSpeed - speed;
+    const standstill = this.input.load.kind === LoadKindIndex.Constant && this.input.load.active === 1 ? speed : Infinity;
+    out[Event.Standstill] = standstill;
+    if (standstill < least) least = standstill;
+    const loadStep = this.stepPendingSpeed - speed;
+    out[Event.LoadStep] = loadStep;
+    if (loadStep < least) least = loadStep;
+    this.leastEventValue = least;
   }
 
 
