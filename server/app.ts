@@ -61,11 +61,11 @@ export function createApp(options: AppOptions) {
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
 
-  // A fresh nonce per response lets the charting library add its own <style> elements (it takes
-  // the nonce from the page) while every other inline style stays forbidden.
   // Text answers (the client's scripts and styles, JSON) go out compressed, as every browser accepts.
   // Not the sign-in answers: they carry the CSRF token, which a compressed reply could leak (BREACH).
   app.use(compression({ filter: (req, res) => !req.path.startsWith('/api/auth/') && compression.filter(req, res) }));
+  // A fresh nonce per response lets the charting library add its own <style> elements (it takes
+  // the nonce from the page) while every other inline style stays forbidden.
   app.use((_req, res, next) => {
     res.locals.cspNonce = randomBytes(16).toString('base64');
     next();
