@@ -26,24 +26,14 @@ import { verifySavings, type PeriodData } from '../server/retrofits/verification
 import { installedEquipment, type InstalledEquipment, type MeterPoint, type RetrofitStatus } from '../server/shared/retrofit.js';
 import type { StoredAssessSettings } from '../server/settings/service.js';
 import { assessInputForMotor } from '../server/studies/motor-input.js';
+// The demo register's deterministic generator (mulberry32), so the meter data are the same everywhere.
+import { generator } from './demo/kestrel-valley.js';
 
 const KESTREL_SLUG = 'kestrel-valley-foods';
 /** Every seeded retrofit's notes start with this; `down` finds them by it. */
 export const DEMO_NOTE_MARKER = 'Demo retrofit (invented). ';
 const DAY_MS = 86_400_000;
 const HOUR_MS = 3_600_000;
-
-/** The same deterministic generator as the demo register (mulberry32). */
-function generator(seed: number) {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 interface MeterPlan {
   /** First metered day, in days before the seeding day. */
@@ -193,7 +183,7 @@ const isoDay = (ms: number) => {
  * 1 % of the rating.
  */
 export function demoMeterCsv(plan: MeterPlan, todayMs: number, runningKw: number, ratedPowerKw: number): string {
-  const random = generator(plan.seed);
+  const random = generator(plan.seed).next;
   const lines = ['timestamp,Power [kW]'];
   const first = todayMs - plan.fromDaysAgo * DAY_MS;
   const perHour = 60 / plan.intervalMinutes;

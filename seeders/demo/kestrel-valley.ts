@@ -141,7 +141,7 @@ export const larkspurSite: DemoSite = {
 };
 
 /** A small deterministic generator (mulberry32), so the demo is the same on every machine. */
-function generator(seed: number) {
+export function generator(seed: number) {
   let state = seed >>> 0;
   const next = () => {
     state = (state + 0x6d2b79f5) >>> 0;
