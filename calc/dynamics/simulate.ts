@@ -15,7 +15,7 @@
 import type { BldcSimulationParams } from '../contracts.js';
 import { CalcInputError, requireInRange, requireNonNegative, requirePositive } from '../errors.js';
 import { PiController, defaultGains, rampedReference, type ControllerGains } from './controller.js';
-import { createRk4Workspace, locateEvent, type Rk4Workspace } from './integrator.js';
+import { locateEvent } from './integrator.js';
 import {
   FIRST_BOUNDARY_RAD,
   LEG_DIODE_HIGH,
@@ -358,19 +358,6 @@ const mirrors: [number, number][] = [
 if (mirrors.some(([local, exported]) => local !== exported)) throw new Error('simulate.ts index enums no longer match model.ts, inverter.ts or load.ts');
 
 
-/**
- * RK4 stage state, stage = x + h·k, for the entries the derivative reads (written out: a loop over
- * six typed-array entries costs about twice as much in V8).
- */
-function stageState(stage: Float64Array, x: Float64Array, k: Float64Array, h: number): void {
-  stage[0] = (x[0] as number) + h * (k[0] as number);
-  stage[1] = (x[1] as number) + h * (k[1] as number);
-  stage[2] = (x[2] as number) + h * (k[2] as number);
-  stage[3] = (x[3] as number) + h * (k[3] as number);
-  stage[4] = (x[4] as number) + h * (k[4] as number);
-  stage[5] = (x[5] as number) + h * (k[5] as number);
-}
-
 /** The stepping engine. Construct with a resolved input; advance in chunks; read the result. */
 class BldcSimulation implements SteppedRun<SimulationResult> {
   private readonly model: BldcModel;
@@ -380,7 +367,6 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
   private xTrial = new Float64Array(State.Size);
   private k1 = new Float64Array(State.Size);
   private kNext = new Float64Array(State.Size);
-  private readonly work: Rk4Workspace = createRk4Workspace(State.Size);
   private readonly legMode = new Int32Array(3);
   private readonly legFactor = new Float64Array(3);
   private readonly closed = new Float64Array(3);
@@ -634,41 +620,14 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
 
   /**
    * Classical RK4 from the committed (t, x, k1) over `tau` into xTrial, then kNext = f(t + τ, xTrial)
-   * with the auxiliary outputs into auxEnd (Hairer, Nørsett & Wanner 1993, Table II.1.2; the same
-   * arithmetic as rk4Step). The inner stages fill only the entries the derivative reads (the energy
-   * integrals are quadratures) and skip the auxiliary outputs. The step τ is the field `tau` (no
-   * floating-point argument, which V8 would box).
+   * with the auxiliary outputs into auxEnd (BldcModel.rk4Step; the same arithmetic as rk4Step of
+   * integrator.ts). Time and step go through the model's fields, not arguments, which V8 would box.
    */
   private rk4(): void {
-    const tau = this.tau;
     const model = this.model;
-    const t = this.t;
-    const x = this.x;
-    const k1 = this.k1;
-    const { k2, k3, k4, stage } = this.work;
-    const out = this.xTrial;
-    const half = 0.5 * tau;
-    stageState(stage, x, k1, half);
-    model.time = t + half;
-    model.evaluate(stage, k2, null);
-    stageState(stage, x, k2, half);
-    model.evaluate(stage, k3, null);
-    stageState(stage, x, k3, tau);
-    model.time = t + tau;
-    model.evaluate(stage, k4, null);
-    // x + (h/6)·(k1 + 2k2 + 2k3 + k4), written out (see stageState; a call here would box h/6).
-    const sixth = tau / 6;
-    out[0] = (x[0] as number) + sixth * ((k1[0] as number) + 2 * (k2[0] as number) + 2 * (k3[0] as number) + (k4[0] as number));
-    out[1] = (x[1] as number) + sixth * ((k1[1] as number) + 2 * (k2[1] as number) + 2 * (k3[1] as number) + (k4[1] as number));
-    out[2] = (x[2] as number) + sixth * ((k1[2] as number) + 2 * (k2[2] as number) + 2 * (k3[2] as number) + (k4[2] as number));
-    out[3] = (x[3] as number) + sixth * ((k1[3] as number) + 2 * (k2[3] as number) + 2 * (k3[3] as number) + (k4[3] as number));
-    out[4] = (x[4] as number) + sixth * ((k1[4] as number) + 2 * (k2[4] as number) + 2 * (k3[4] as number) + (k4[4] as number));
-    out[5] = (x[5] as number) + sixth * ((k1[5] as number) + 2 * (k2[5] as number) + 2 * (k3[5] as number) + (k4[5] as number));
-    out[6] = (x[6] as number) + sixth * ((k1[6] as number) + 2 * (k2[6] as number) + 2 * (k3[6] as number) + (k4[6] as number));
-    out[7] = (x[7] as number) + sixth * ((k1[7] as number) + 2 * (k2[7] as number) + 2 * (k3[7] as number) + (k4[7] as number));
-    out[8] = (x[8] as number) + sixth * ((k1[8] as number) + 2 * (k2[8] as number) + 2 * (k3[8] as number) + (k4[8] as number));
-    out[9] = (x[9] as number) + sixth * ((k1[9] as number) + 2 * (k2[9] as number) + 2 * (k3[9] as number) + (k4[9] as number));
-    model.evaluate(out, this.kNext, this.auxEnd);
+    model.time = this.t;
+    model.stepS = this.tau;
+    model.rk4Step(this.x, this.k1, this.xTrial, this.kNext, this.auxEnd);
   }
 
   private crossed(j: number): boolean {
