@@ -35,16 +35,15 @@ import {
 } from '../shared/intake.js';
 import { buildMapping, findHeaderRow, headerKey, headerNames } from './mapping.js';
 import { parseSpreadsheet } from './parse.js';
-import { CHUNK_ROWS, MOTOR_COLUMNS, insertAudits, insertMotors, insertRows, overwriteMotors, recordRowOutcomes } from './store.js';
+import { CHUNK_ROWS, commitStatements, insertAudits, insertRows, overwriteMotors } from './store.js';
 import { validateRows, type ParsedRow } from './validate.js';
 
 /**
- * Test-only hooks (honoured only when NODE_ENV is `test`): `afterCommitChunk` may throw to simulate
- * a failure in the middle of a commit.
+ * Test-only hooks (honoured only when NODE_ENV is `test`): `afterCommitStep` may throw to simulate a
+ * failure in the middle of a commit, after its set-based step `stepIndex` (0 creates the outcome table,
+ * 1 locks the updated motors, 3 updates them, 4 creates the new ones, 6 records row outcomes, 7 audits).
  */
-export const intakeTestHooks: { afterCommitChunk?: (chunkIndex: number) => void } = {};
-
-const MOTOR_DEFAULTS = { application: 'other', efficiencyClass: 'unknown', rewinds: 0, controlMethod: 'direct-on-line', status: 'in-service' } as const;
+export const intakeTestHooks: { afterCommitStep?: (stepIndex: number) => void } = {};
 
 async function rememberedMappings(tenant: Tenant): Promise<Map<string, string | null>> {
   const rows = await tenant.findAll(ImportMapping, { attributes: ['headerKey', 'field', 'organizationId'] });
@@ -285,13 +284,6 @@ export async function listImports(tenant: Tenant, query: z.infer<typeof importLi
   return { items: await summaries(tenant, rows), total: count, page: query.page, pageSize: query.pageSize };
 }
 
-/** Every motor column's value of a motor row, in the motor vocabulary (for undo and for merging). */
-function fullValues(motor: Motor): Record<string, unknown> {
-  const values: Record<string, unknown> = { id: motor.id, version: motor.version, importBatchId: motor.importBatchId };
-  for (const [field] of MOTOR_COLUMNS) values[field] = (motor.get(field as keyof Motor) as unknown) ?? null;
-  return values;
-}
-
 async function setProgress(id: number, progress: number): Promise<void> {
   await database().query('UPDATE import_batches SET progress = $1 WHERE id = $2', { bind: [progress, id], type: QueryTypes.UPDATE });
 }
@@ -343,73 +335,47 @@ export async function commitImport(tenant: Tenant, id: number): Promise<ImportCo
     const result = await (async () => {
       const site = await Site.findOne({ where: tenant.where<Site>({ id: batch.siteId }), transaction, lock: transaction.LOCK.SHARE });
       if (!site) throw notFound('Site');
-      const rows = await ImportRow.findAll({
-        where: { batchId: id, valid: true },
-        attributes: ['id', 'rowNumber', 'values'],
-        order: [['rowNumber', 'ASC']],
-        transaction,
-        raw: true,
-      });
-      if (rows.length === 0) throw conflict('nothing-to-commit', 'No row of this import is valid: correct the file or the mapping first.');
-      const tags = rows.map((row) => String(row.values.tag));
-      const existing = await Motor.findAll({ where: { siteId: site.id, tag: { [Op.in]: tags } }, transaction, lock: transaction.LOCK.UPDATE });
-      const byTag = new Map(existing.map((motor) => [motor.tag, motor]));
-      let created = 0;
-      let updated = 0;
-      let chunkIndex = 0;
-      for (let start = 0; start < rows.length; start += CHUNK_ROWS, chunkIndex += 1) {
-        const chunk = rows.slice(start, start + CHUNK_ROWS);
-        const creates: typeof chunk = [];
-        const updates: Array<{ row: (typeof chunk)[number]; motor: Motor }> = [];
-        for (const row of chunk) {
-          const motor = byTag.get(String(row.values.tag));
-          if (motor) updates.push({ row, motor });
-          else creates.push(row);
-        }
-        const newIds = await insertMotors(
-          tenant.organizationId,
-          site.id,
-          id,
-          creates.map((row) => ({ ...MOTOR_DEFAULTS, voltageV: site.voltageV, frequencyHz: site.frequencyHz, ...row.values })),
-          transaction,
-        );
-        const merged = updates.map(({ row, motor }) => ({ id: motor.id, ...fullValues(motor), ...row.values }));
-        await overwriteMotors(merged, transaction, id);
-        await recordRowOutcomes(
-          [
-            ...creates.map((row) => ({ id: row.id, action: 'create', motor_id: newIds.get(String(row.values.tag)) as number, previous: null })),
-            ...updates.map(({ row, motor }) => ({ id: row.id, action: 'update', motor_id: motor.id, previous: fullValues(motor) })),
-          ],
-          transaction,
-        );
-        await insertAudits(
-          tenant.organizationId,
-          tenant.user.id,
-          [
-            ...creates.map((row) => ({ action: 'import-create', entity_id: newIds.get(String(row.values.tag)) as number, changes: { importBatchId: id, row: row.rowNumber } })),
-            ...updates.map(({ row, motor }) => {
-              const before = fullValues(motor);
-              const changes: Record<string, { from: unknown; to: unknown }> = {};
-              for (const [field, to] of Object.entries(row.values)) {
-                if (JSON.stringify(before[field] ?? null) !== JSON.stringify(to)) changes[field] = { from: before[field] ?? null, to };
-              }
-              return { action: 'import-update', entity_id: motor.id, changes: { importBatchId: id, row: row.rowNumber, changes } };
-            }),
-          ],
-          transaction,
-        );
-        created += creates.length;
-        updated += updates.length;
-        if (process.env.NODE_ENV === 'test') intakeTestHooks.afterCommitChunk?.(chunkIndex);
-        await setProgress(id, Math.min(0.99, (start + chunk.length) / rows.length));
+      const replacements = {
+        batchId: id,
+        siteId: site.id,
+        organizationId: tenant.organizationId,
+        userId: tenant.user.id,
+        siteVoltageV: site.voltageV,
+        siteFrequencyHz: site.frequencyHz,
+      };
+      const run = async <T extends object = Record<string, unknown>>(sql: string) =>
+        database().query<T>(sql, { replacements, transaction, type: QueryTypes.SELECT });
+      const [valid] = await run<{ count: number }>(commitStatements.count);
+      const validRows = valid?.count ?? 0;
+      if (validRows === 0) throw conflict('nothing-to-commit', 'No row of this import is valid: correct the file or the mapping first.');
+      // Set-based steps; the progress row (outside the transaction) advances after each one.
+      const steps = [
+        [commitStatements.outcomes, 0.02],
+        [commitStatements.lockUpdated, 0.1],
+        [commitStatements.analyze, 0.15],
+        [commitStatements.updateMotors, 0.35],
+        [commitStatements.insertMotors, 0.65],
+        [commitStatements.analyze, 0.7],
+        [commitStatements.recordOutcomes, 0.85],
+        [commitStatements.insertAudits, 0.99],
+      ] as const;
+      for (const [index, [sql, progress]] of steps.entries()) {
+        await run(sql);
+        if (process.env.NODE_ENV === 'test') intakeTestHooks.afterCommitStep?.(index);
+        await setProgress(id, progress);
       }
+      const [outcome] = await run<{ created: number; updated: number }>(
+        `SELECT count(*) FILTER (WHERE action = 'create')::int AS created, count(*) FILTER (WHERE action = 'update')::int AS updated FROM import_commit_outcomes`,
+      );
+      const created = outcome?.created ?? 0;
+      const updated = outcome?.updated ?? 0;
       await ImportBatch.update(
         { status: 'committed', progress: 1, createdCount: created, updatedCount: updated, committedAt: new Date(), failure: null },
         { where: { id }, transaction },
       );
       await rememberMapping(tenant, batch.mapping as Mapping, transaction);
       await tenant.audit('commit', 'import', id, { created, updated, skipped: batch.invalidRows }, transaction);
-      return { created, updated, skipped: batch.totalRows - rows.length };
+      return { created, updated, skipped: batch.totalRows - validRows };
     })();
     await transaction.commit();
     return result;

@@ -88,7 +88,7 @@ afterAll(async () => {
   rmSync(uploadDir, { recursive: true, force: true });
 });
 afterEach(() => {
-  delete intakeTestHooks.afterCommitChunk;
+  delete intakeTestHooks.afterCommitStep;
 });
 
 describe('intake: a clean file', () => {
@@ -321,23 +321,24 @@ describe('intake: atomic commit', () => {
     const atomicSite = await createSite(organization, { name: 'Atomic site' });
     const first = await upload(session, xlsxOf([cleanHeader, ...Array.from({ length: 300 }, (_, index) => cleanRow(index + 1))]), atomicSite.id);
     await session.post(`/api/imports/${first.body.id}/commit`).expect(200);
-    // 5,000 rows: 300 updates and 4,700 creations in three chunks; the second chunk fails.
+    // 5,000 rows: 300 updates and 4,700 creations; the commit fails once both are written (step 4),
+    // before the row outcomes and the audit rows.
     const big = await upload(session, xlsxOf([cleanHeader, ...Array.from({ length: 5000 }, (_, index) => cleanRow(index + 1, 15))]), atomicSite.id);
     expect(big.body.rows).toMatchObject({ total: 5000, valid: 5000 });
     const before = await snapshot(organization.id);
-    intakeTestHooks.afterCommitChunk = (chunk) => {
-      if (chunk === 1) throw new Error('injected failure after the second chunk');
+    intakeTestHooks.afterCommitStep = (step) => {
+      if (step === 4) throw new Error('injected failure after the motors are written');
     };
     const failed = await session.post(`/api/imports/${big.body.id}/commit`);
     expect(failed.status).toBe(500);
-    expect(failed.body.error).toMatchObject({ code: 'commit-failed', message: 'The commit failed and nothing was written (injected failure after the second chunk). Try again.' });
+    expect(failed.body.error).toMatchObject({ code: 'commit-failed', message: 'The commit failed and nothing was written (injected failure after the motors are written). Try again.' });
     const after = await snapshot(organization.id);
     expect(after.motors).toEqual(before.motors);
     expect(after.counts).toEqual(before.counts);
     const batch = await ImportBatch.findByPk(big.body.id);
     expect(batch).toMatchObject({ status: 'failed', progress: 0, createdCount: 0 });
 
-    delete intakeTestHooks.afterCommitChunk;
+    delete intakeTestHooks.afterCommitStep;
     const retried = await session.post(`/api/imports/${big.body.id}/commit`).expect(200);
     expect(retried.body).toEqual({ created: 4700, updated: 300, skipped: 0 });
     expect(await Motor.count({ where: { siteId: atomicSite.id } })).toBe(5000);
