@@ -55,6 +55,42 @@ export interface ValidationResult {
 
 type ColumnReader = (cell: CellValue) => CellResult<unknown>;
 
+/** A cell read and checked against its field's rule: a value (with an optional note), blank, or the reason it fails. */
+type CellOutcome = { kind: 'value'; value: unknown; note?: string | undefined } | { kind: 'blank' } | { kind: 'error'; message: string };
+
+/**
+ * Distinct cells remembered per column. A motor list repeats most of its cells (ratings, voltages,
+ * classes, frames), so each distinct cell is read and checked once; a column of unique cells (tags,
+ * descriptions) stops filling its memory at this size.
+ */
+const CELL_MEMORY = 4096;
+
+interface Column {
+  index: number;
+  field: ImportField;
+  read: ColumnReader;
+  header: string;
+  memory: Map<CellValue, CellOutcome>;
+}
+
+/** Reads and checks one cell of a column, through the column's memory of the cells it has seen. */
+function outcomeOf(column: Column, cell: CellValue): CellOutcome {
+  const remembered = column.memory.get(cell);
+  if (remembered !== undefined) return remembered;
+  let outcome: CellOutcome;
+  const result = column.read(cell);
+  if (!result.ok) outcome = { kind: 'error', message: result.message };
+  else if (result.value === null) outcome = { kind: 'blank' };
+  else {
+    const checked = motorFieldRules[column.field].safeParse(result.value);
+    outcome = checked.success ? { kind: 'value', value: checked.data, note: result.note } : { kind: 'error', message: checked.error.issues[0]?.message ?? 'is invalid' };
+  }
+  // Only plain values are shared between rows (a duty profile's bins are an object of the row's own).
+  const shareable = outcome.kind !== 'value' || outcome.value === null || typeof outcome.value !== 'object';
+  if (shareable && column.memory.size < CELL_MEMORY) column.memory.set(cell, outcome);
+  return outcome;
+}
+
 const QUANTITIES: Partial<Record<ImportField, { target: string; accepted: string; units: string[] }>> = {
   ratedPowerKw: { target: 'kW', accepted: 'kW, W or hp', units: ['kW', 'W', 'MW', 'hp', 'PS'] },
   speedRpm: { target: 'rpm', accepted: 'rpm', units: ['rpm'] },
@@ -125,10 +161,10 @@ export interface ValidationContext {
 }
 
 export function validateRows(rows: ParsedRow[], context: ValidationContext): ValidationResult {
-  const columns: Array<{ index: number; field: ImportField; read: ColumnReader; header: string }> = [];
+  const columns: Column[] = [];
   context.headers.forEach((header, index) => {
     const field = context.mapping[header];
-    if (field) columns.push({ index, field, read: columnReader(field, header), header });
+    if (field) columns.push({ index, field, read: columnReader(field, header), header, memory: new Map() });
   });
   const mapped = new Set(columns.map((column) => column.field));
   const unmappedRequired: string[] = [];
@@ -190,30 +226,27 @@ function requireForCreate(row: ValidatedRow): void {
   }
 }
 
-function validateRow(parsed: ParsedRow, columns: Array<{ index: number; field: ImportField; read: ColumnReader }>, context: ValidationContext): ValidatedRow {
+function validateRow(parsed: ParsedRow, columns: Column[], context: ValidationContext): ValidatedRow {
   const values: Record<string, unknown> = {};
   const errors: RowIssue[] = [];
   const warnings: RowIssue[] = [];
-  const raw: Partial<Record<ImportField, string | null>> = {};
+  // The cells as read, turned into text only for the messages that quote them.
+  const cells: Partial<Record<ImportField, CellValue>> = {};
+  const rawText = (field: ImportField) => cellText(cells[field]);
   for (const column of columns) {
     const cell = parsed.cells[column.index] ?? null;
-    raw[column.field] = cellText(cell);
-    const result = column.read(cell);
-    if (!result.ok) {
-      errors.push({ row: parsed.row, field: column.field, value: cellText(cell), message: result.message });
+    cells[column.field] = cell;
+    const outcome = outcomeOf(column, cell);
+    if (outcome.kind === 'error') {
+      errors.push({ row: parsed.row, field: column.field, value: cellText(cell), message: outcome.message });
       continue;
     }
-    if (result.value === null) continue;
-    const checked = motorFieldRules[column.field].safeParse(result.value);
-    if (!checked.success) {
-      errors.push({ row: parsed.row, field: column.field, value: cellText(cell), message: checked.error.issues[0]?.message ?? 'is invalid' });
-      continue;
-    }
-    values[column.field] = checked.data;
-    if (result.note && column.field === 'efficiencyClass') warnings.push({ row: parsed.row, field: column.field, value: cellText(cell), message: result.note });
+    if (outcome.kind === 'blank') continue;
+    values[column.field] = outcome.value;
+    if (outcome.note && column.field === 'efficiencyClass') warnings.push({ row: parsed.row, field: column.field, value: cellText(cell), message: outcome.note });
   }
   if (values.tag === undefined && !errors.some((issue) => issue.field === 'tag')) {
-    errors.push({ row: parsed.row, field: 'tag', value: raw.tag ?? null, message: 'is required' });
+    errors.push({ row: parsed.row, field: 'tag', value: rawText('tag'), message: 'is required' });
   }
 
   const frequencyHz = (values.frequencyHz as number | undefined) ?? context.site.frequencyHz;
@@ -221,7 +254,7 @@ function validateRow(parsed: ParsedRow, columns: Array<{ index: number; field: I
   if (values.poles === undefined && speedRpm !== undefined) {
     const poles = polesFromSpeed(speedRpm, frequencyHz);
     if (poles === undefined) {
-      errors.push({ row: parsed.row, field: 'speedRpm', value: raw.speedRpm ?? null, message: `does not give 2, 4, 6 or 8 poles at ${frequencyHz} Hz; give the poles` });
+      errors.push({ row: parsed.row, field: 'speedRpm', value: rawText('speedRpm'), message: `does not give 2, 4, 6 or 8 poles at ${frequencyHz} Hz; give the poles` });
     } else {
       values.poles = poles;
       warnings.push({ row: parsed.row, field: 'poles', value: null, message: `worked out as ${poles} from ${speedRpm} rpm at ${frequencyHz} Hz` });
@@ -232,7 +265,7 @@ function validateRow(parsed: ParsedRow, columns: Array<{ index: number; field: I
       warnings.push({
         row: parsed.row,
         field: 'speedRpm',
-        value: raw.speedRpm ?? null,
+        value: rawText('speedRpm'),
         message: `${speedRpm} rpm does not fit ${values.poles as number} poles at ${frequencyHz} Hz (synchronous speed ${synchronous} rpm)`,
       });
     }
@@ -247,7 +280,7 @@ function validateRow(parsed: ParsedRow, columns: Array<{ index: number; field: I
         warnings.push({
           row: parsed.row,
           field: 'nameplateEfficiencyPct',
-          value: raw.nameplateEfficiencyPct ?? null,
+          value: rawText('nameplateEfficiencyPct'),
           message: `${efficiency} % is below the IE1 minimum of ${ie1.efficiencyPct} % for ${ratedPowerKw} kW, ${values.poles as number} poles, ${frequencyHz} Hz (IEC 60034-30-1)`,
         });
       }
@@ -261,12 +294,12 @@ function validateRow(parsed: ParsedRow, columns: Array<{ index: number; field: I
   if (profile && hoursPerYear !== undefined) {
     const sum = profile.reduce((total, bin) => total + bin.hours, 0);
     if (Math.abs(sum - hoursPerYear) > 1) {
-      warnings.push({ row: parsed.row, field: 'dutyProfile', value: raw.dutyProfile ?? null, message: `bins add up to ${sum} h but hours per year is ${hoursPerYear} h` });
+      warnings.push({ row: parsed.row, field: 'dutyProfile', value: rawText('dutyProfile'), message: `bins add up to ${sum} h but hours per year is ${hoursPerYear} h` });
     }
   }
   const year = values.yearInstalled as number | undefined;
   if (year !== undefined && year > context.currentYear) {
-    warnings.push({ row: parsed.row, field: 'yearInstalled', value: raw.yearInstalled ?? null, message: `${year} is in the future` });
+    warnings.push({ row: parsed.row, field: 'yearInstalled', value: rawText('yearInstalled'), message: `${year} is in the future` });
   }
   return { ...parsed, values, errors, warnings, valid: errors.length === 0, action: 'skip', motorId: null };
 }
