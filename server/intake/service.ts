@@ -35,8 +35,8 @@ import {
 } from '../shared/intake.js';
 import { buildMapping, findHeaderRow, headerKey, headerNames } from './mapping.js';
 import { parseSpreadsheet } from './parse.js';
-import { CHUNK_ROWS, commitStatements, insertAudits, insertRows, overwriteMotors } from './store.js';
-import { validateRows, type ParsedRow } from './validate.js';
+import { CHUNK_ROWS, chunked, commitStatements, insertAudits, insertRows, overwriteMotors } from './store.js';
+import { startValidation, type ParsedRow, type ValidatedRow, type Validation } from './validate.js';
 
 /**
  * Test-only hooks (honoured only when NODE_ENV is `test`): `afterCommitStep` may throw to simulate a
@@ -81,15 +81,20 @@ function tagsOf(rows: ParsedRow[], headers: string[], mapping: Mapping): string[
   return [...tags];
 }
 
-async function validateBatch(tenant: Tenant, site: Site, headers: string[], mapping: Mapping, rows: ParsedRow[]) {
+async function validateBatch(tenant: Tenant, site: Site, headers: string[], mapping: Mapping, rows: ParsedRow[]): Promise<Validation> {
   const existing = await existingTags(site.id, tagsOf(rows, headers, mapping));
-  return validateRows(rows, {
+  return startValidation(rows, {
     headers,
     mapping,
     site: { voltageV: site.voltageV, frequencyHz: site.frequencyHz },
     existing,
     currentYear: new Date().getFullYear(),
   });
+}
+
+/** The batch's rows validated chunk by chunk as the staging asks for them. */
+function* validatedChunks(validation: Validation, rows: ParsedRow[]): Generator<ValidatedRow[]> {
+  for (const chunk of chunked(rows)) yield validation.validate(chunk);
 }
 
 async function requireSite(tenant: Tenant, siteId: number): Promise<Site> {
@@ -136,17 +141,23 @@ export async function createImport(
         headers,
         headerRow: headerRow.row,
         sheetName: sheet.sheetName,
-        totalRows: validation.counts.total,
-        validRows: validation.counts.valid,
-        invalidRows: validation.counts.invalid,
-        warningRows: validation.counts.warnings,
-        duplicates: validation.duplicates,
+        // Counted while the rows are validated and staged, then written below.
+        totalRows: 0,
+        validRows: 0,
+        invalidRows: 0,
+        warningRows: 0,
+        duplicates: { inFile: [], inRegister: [] },
       },
       transaction,
     );
-    await insertRows(batch.id, validation.rows, transaction);
+    await insertRows(batch.id, validatedChunks(validation, dataRows), transaction);
+    const { counts, duplicates } = validation.summary();
+    await ImportBatch.update(
+      { totalRows: counts.total, validRows: counts.valid, invalidRows: counts.invalid, warningRows: counts.warnings, duplicates },
+      { where: { id: batch.id }, transaction },
+    );
     if (input.mapping) await rememberMapping(tenant, mapping, transaction);
-    await tenant.audit('upload', 'import', batch.id, { fileName: batch.fileName, siteId: site.id, rows: validation.counts }, transaction);
+    await tenant.audit('upload', 'import', batch.id, { fileName: batch.fileName, siteId: site.id, rows: counts }, transaction);
     return batch.id;
   });
   return previewResult(tenant, batchId, validation.unmappedRequired);
@@ -165,20 +176,19 @@ export async function remapImport(tenant: Tenant, id: number, mapping: Mapping):
   const rows: ParsedRow[] = stored.map((row) => ({ row: row.rowNumber, cells: row.cells }));
   const validation = await validateBatch(tenant, site, batch.headers, full, rows);
   await database().transaction(async (transaction) => {
-    const [updated] = await ImportBatch.update(
-      {
-        mapping: full,
-        totalRows: validation.counts.total,
-        validRows: validation.counts.valid,
-        invalidRows: validation.counts.invalid,
-        warningRows: validation.counts.warnings,
-        duplicates: validation.duplicates,
-      },
+    // Takes the batch's row first, so a commit that claims it meanwhile is seen here (and refused).
+    const [claimed] = await ImportBatch.update(
+      { mapping: full },
       { where: tenant.where<ImportBatch>({ id, status: { [Op.in]: ['previewed', 'failed'] } }), transaction },
     );
-    if (updated === 0) throw conflict('not-editable', 'This import changed meanwhile; reload it.');
+    if (claimed === 0) throw conflict('not-editable', 'This import changed meanwhile; reload it.');
     await ImportRow.destroy({ where: { batchId: id }, transaction });
-    await insertRows(id, validation.rows, transaction);
+    await insertRows(id, validatedChunks(validation, rows), transaction);
+    const { counts, duplicates } = validation.summary();
+    await ImportBatch.update(
+      { totalRows: counts.total, validRows: counts.valid, invalidRows: counts.invalid, warningRows: counts.warnings, duplicates },
+      { where: { id }, transaction },
+    );
     await rememberMapping(tenant, full, transaction);
     await tenant.audit('remap', 'import', id, { mapping: full }, transaction);
   });

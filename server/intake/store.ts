@@ -40,25 +40,46 @@ export const MOTOR_COLUMNS: ReadonlyArray<readonly [field: string, column: strin
 
 const recordsetColumns = MOTOR_COLUMNS.map(([field, , type]) => `"${field}" ${type}`).join(', ');
 
-export async function insertRows(batchId: number, rows: ValidatedRow[], transaction: Transaction): Promise<void> {
-  for (let start = 0; start < rows.length; start += CHUNK_ROWS) {
-    const chunk = rows.slice(start, start + CHUNK_ROWS).map((row) => ({
-      row_number: row.row,
-      cells: row.cells,
-      values: row.values,
-      errors: row.errors,
-      warnings: row.warnings,
-      valid: row.valid,
-      action: row.action,
-      motor_id: row.motorId,
-    }));
-    await database().query(
-      `INSERT INTO import_rows (batch_id, row_number, cells, "values", errors, warnings, valid, action, motor_id)
-       SELECT $1, r.row_number, r.cells, r."values", r.errors, r.warnings, r.valid, r.action, r.motor_id
-       FROM jsonb_to_recordset($2::jsonb) AS r(row_number int, cells jsonb, "values" jsonb, errors jsonb, warnings jsonb, valid boolean, action text, motor_id int)`,
-      { bind: [batchId, JSON.stringify(chunk)], transaction, type: QueryTypes.INSERT },
-    );
+/**
+ * Stages rows in `import_rows`, a multi-row INSERT per chunk. The chunks may be produced lazily (a
+ * generator that validates them): the next chunk is then validated in Node while PostgreSQL stores the
+ * previous one, at most one INSERT in flight.
+ */
+export async function insertRows(batchId: number, chunks: Iterable<ValidatedRow[]>, transaction: Transaction): Promise<void> {
+  let inFlight: Promise<unknown> | undefined;
+  try {
+    for (const rows of chunks) {
+      const chunk = rows.map((row) => ({
+        row_number: row.row,
+        cells: row.cells,
+        values: row.values,
+        errors: row.errors,
+        warnings: row.warnings,
+        valid: row.valid,
+        action: row.action,
+        motor_id: row.motorId,
+      }));
+      const json = JSON.stringify(chunk);
+      await inFlight;
+      inFlight = database().query(
+        `INSERT INTO import_rows (batch_id, row_number, cells, "values", errors, warnings, valid, action, motor_id)
+         SELECT $1, r.row_number, r.cells, r."values", r.errors, r.warnings, r.valid, r.action, r.motor_id
+         FROM jsonb_to_recordset($2::jsonb) AS r(row_number int, cells jsonb, "values" jsonb, errors jsonb, warnings jsonb, valid boolean, action text, motor_id int)`,
+        { bind: [batchId, json], transaction, type: QueryTypes.INSERT },
+      );
+      // Let the query reach PostgreSQL before the next chunk's validation holds the event loop.
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+    await inFlight;
+  } catch (error) {
+    await inFlight?.catch(() => undefined);
+    throw error;
   }
+}
+
+/** Rows in chunks of `size`, as a lazy sequence. */
+export function* chunked<T>(rows: T[], size = CHUNK_ROWS): Generator<T[]> {
+  for (let start = 0; start < rows.length; start += size) yield rows.slice(start, start + size);
 }
 
 /** Writes full motor values over existing motors (by `id`), bumping their version. */

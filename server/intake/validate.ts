@@ -160,7 +160,21 @@ export interface ValidationContext {
   currentYear: number;
 }
 
-export function validateRows(rows: ParsedRow[], context: ValidationContext): ValidationResult {
+/** A validation under way: the file's summary is known up front, its rows are validated chunk by chunk. */
+export interface Validation {
+  unmappedRequired: string[];
+  /** Validates the next rows (in file order), with their duplicate and register checks. */
+  validate(rows: ParsedRow[]): ValidatedRow[];
+  /** Counts and duplicates of the rows validated so far. */
+  summary(): Omit<ValidationResult, 'rows' | 'unmappedRequired'>;
+}
+
+/**
+ * Starts the validation of a file's rows. The tags are read first, so a tag on several rows is an
+ * error on each of them whichever chunk they fall in; the rows can then be validated (and staged)
+ * chunk by chunk, the next chunk validated while PostgreSQL stores the previous one.
+ */
+export function startValidation(rows: ParsedRow[], context: ValidationContext): Validation {
   const columns: Column[] = [];
   context.headers.forEach((header, index) => {
     const field = context.mapping[header];
@@ -172,47 +186,59 @@ export function validateRows(rows: ParsedRow[], context: ValidationContext): Val
   if (!mapped.has('ratedPowerKw')) unmappedRequired.push('ratedPowerKw');
   if (!mapped.has('poles') && !mapped.has('speedRpm')) unmappedRequired.push('poles');
 
-  const validated: ValidatedRow[] = rows.map((parsed) => validateRow(parsed, columns, context));
-
-  // Duplicates within the file: every row of a repeated tag gets the error.
-  const byTag = new Map<string, ValidatedRow[]>();
-  for (const row of validated) {
-    const tag = row.values.tag;
+  // Duplicates within the file: the rows of each tag, as validateRow will read it (the last tag column with a value).
+  const tagColumns = columns.filter((column) => column.field === 'tag');
+  const rowsByTag = new Map<string, number[]>();
+  for (const parsed of rows) {
+    let tag: unknown;
+    for (const column of tagColumns) {
+      const outcome = outcomeOf(column, parsed.cells[column.index] ?? null);
+      if (outcome.kind === 'value') tag = outcome.value;
+    }
     if (typeof tag !== 'string') continue;
-    const list = byTag.get(tag);
-    if (list) list.push(row);
-    else byTag.set(tag, [row]);
+    const list = rowsByTag.get(tag);
+    if (list) list.push(parsed.row);
+    else rowsByTag.set(tag, [parsed.row]);
   }
   const inFile: Array<{ tag: string; rows: number[] }> = [];
-  for (const [tag, list] of byTag) {
-    if (list.length < 2) continue;
-    const numbers = list.map((row) => row.row);
-    inFile.push({ tag, rows: numbers });
-    for (const row of list) {
-      row.errors.push({ row: row.row, field: 'tag', value: tag, message: `appears more than once in this file (rows ${numbers.join(', ')}); keep one` });
-    }
-  }
+  for (const [tag, numbers] of rowsByTag) if (numbers.length > 1) inFile.push({ tag, rows: numbers });
 
   const inRegister: Array<{ tag: string; row: number; motorId: number }> = [];
+  let total = 0;
   let valid = 0;
   let warnings = 0;
-  for (const row of validated) {
-    const tag = row.values.tag;
-    const motorId = typeof tag === 'string' ? context.existing.get(tag) : undefined;
-    if (motorId !== undefined && typeof tag === 'string') inRegister.push({ tag, row: row.row, motorId });
-    if (motorId === undefined) requireForCreate(row);
-    row.valid = row.errors.length === 0;
-    row.motorId = motorId ?? null;
-    row.action = !row.valid ? 'skip' : motorId === undefined ? 'create' : 'update';
-    if (row.valid) valid += 1;
-    if (row.warnings.length > 0) warnings += 1;
-  }
   return {
-    rows: validated,
-    counts: { total: validated.length, valid, invalid: validated.length - valid, warnings },
-    duplicates: { inFile, inRegister },
     unmappedRequired,
+    validate(chunk) {
+      return chunk.map((parsed) => {
+        const row = validateRow(parsed, columns, context);
+        const tag = row.values.tag;
+        const numbers = typeof tag === 'string' ? rowsByTag.get(tag) : undefined;
+        if (numbers && numbers.length > 1) {
+          row.errors.push({ row: row.row, field: 'tag', value: tag as string, message: `appears more than once in this file (rows ${numbers.join(', ')}); keep one` });
+        }
+        const motorId = typeof tag === 'string' ? context.existing.get(tag) : undefined;
+        if (motorId !== undefined && typeof tag === 'string') inRegister.push({ tag, row: row.row, motorId });
+        if (motorId === undefined) requireForCreate(row);
+        row.valid = row.errors.length === 0;
+        row.motorId = motorId ?? null;
+        row.action = !row.valid ? 'skip' : motorId === undefined ? 'create' : 'update';
+        total += 1;
+        if (row.valid) valid += 1;
+        if (row.warnings.length > 0) warnings += 1;
+        return row;
+      });
+    },
+    summary() {
+      return { counts: { total, valid, invalid: total - valid, warnings }, duplicates: { inFile, inRegister } };
+    },
   };
+}
+
+export function validateRows(rows: ParsedRow[], context: ValidationContext): ValidationResult {
+  const validation = startValidation(rows, context);
+  const validated = validation.validate(rows);
+  return { rows: validated, ...validation.summary(), unmappedRequired: validation.unmappedRequired };
 }
 
 /** A new motor needs its rated power and poles; the others have defaults. */
