@@ -41,7 +41,7 @@ import { startValidation, type ParsedRow, type ValidatedRow, type Validation } f
 /**
  * Test-only hooks (honoured only when NODE_ENV is `test`): `afterCommitStep` may throw to simulate a
  * failure in the middle of a commit, after its set-based step `stepIndex` (0 creates the outcome table,
- * 1 locks the updated motors, 3 updates them, 4 creates the new ones, 6 records row outcomes, 7 audits).
+ * 1 locks the updated motors, 2 updates them, 3 creates the new ones, 4 records row outcomes, 5 audits).
  */
 export const intakeTestHooks: { afterCommitStep?: (stepIndex: number) => void } = {};
 
@@ -361,11 +361,9 @@ export async function commitImport(tenant: Tenant, id: number): Promise<ImportCo
       // Set-based steps; the progress row (outside the transaction) advances after each one.
       const steps = [
         [commitStatements.outcomes, 0.02],
-        [commitStatements.lockUpdated, 0.1],
-        [commitStatements.analyze, 0.15],
+        [commitStatements.lockUpdated, 0.15],
         [commitStatements.updateMotors, 0.35],
-        [commitStatements.insertMotors, 0.65],
-        [commitStatements.analyze, 0.7],
+        [commitStatements.insertMotors, 0.7],
         [commitStatements.recordOutcomes, 0.85],
         [commitStatements.insertAudits, 0.99],
       ] as const;

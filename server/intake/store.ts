@@ -144,13 +144,12 @@ export const commitStatements = {
   /** The valid rows to commit. */
   count: `SELECT count(*)::int AS count FROM ${VALID_ROWS}`,
   /**
-   * The outcome table. JIT is off for the transaction: compiling these one-off statements costs more
-   * than it saves (up to 0.5 s a statement).
+   * The outcome table. For the transaction: JIT off, since the planner cannot size a fresh temporary
+   * table or freshly staged rows and would compile these one-off statements (up to 0.5 s each, more than
+   * it saves); and room to sort and hash 50,000 rows in memory rather than in temporary files.
    */
-  outcomes: `SET LOCAL jit = off;
+  outcomes: `SET LOCAL jit = off; SET LOCAL work_mem = '64MB';
      CREATE TEMPORARY TABLE import_commit_outcomes (row_id bigint PRIMARY KEY, action text NOT NULL, motor_id int NOT NULL, previous jsonb) ON COMMIT DROP`,
-  /** Statistics of the outcome table, so the next statements join it by hash rather than guess its size. */
-  analyze: 'ANALYZE import_commit_outcomes',
   /** Locks the motors the batch updates (by site and tag) and keeps their values before the commit, for undo. */
   lockUpdated: `INSERT INTO import_commit_outcomes (row_id, action, motor_id, previous)
      SELECT r.id, 'update', m.id, ${PREVIOUS_VALUES}
@@ -163,18 +162,21 @@ export const commitStatements = {
   ).join(', ')}, import_batch_id = :batchId, version = m.version + 1, updated_at = now()
      FROM import_commit_outcomes o JOIN import_rows r ON r.id = o.row_id
      WHERE m.id = o.motor_id`,
-  /** Creates the motors of the other rows (tags are unique within a batch's valid rows) and records them. */
-  insertMotors: `WITH created AS (
-       INSERT INTO motors (organization_id, site_id, import_batch_id, version, created_at, updated_at, ${MOTOR_COLUMNS.map(([, column]) => column).join(', ')})
-       SELECT :organizationId, :siteId, :batchId, 0, now(), now(), ${MOTOR_COLUMNS.map(([field, , type, cast]) =>
+  /**
+   * Creates the motors of the other rows and records them. Their ids are drawn from the motors' own
+   * sequence beforehand, so each row knows its motor without joining the created motors back by tag.
+   */
+  insertMotors: `WITH fresh AS MATERIALIZED (
+       SELECT r.id AS row_id, r."values", nextval((SELECT pg_get_serial_sequence('motors', 'id'))::regclass)::int AS motor_id
+       FROM ${VALID_ROWS} AND NOT EXISTS (SELECT 1 FROM import_commit_outcomes o WHERE o.row_id = r.id)
+     ), created AS (
+       INSERT INTO motors (id, organization_id, site_id, import_batch_id, version, created_at, updated_at, ${MOTOR_COLUMNS.map(([, column]) => column).join(', ')})
+       SELECT r.motor_id, :organizationId, :siteId, :batchId, 0, now(), now(), ${MOTOR_COLUMNS.map(([field, , type, cast]) =>
          CREATE_DEFAULTS[field] ? `coalesce(${stagedValue(field, type, cast)}, ${CREATE_DEFAULTS[field]}${cast})` : stagedValue(field, type, cast),
        ).join(', ')}
-       FROM ${VALID_ROWS} AND NOT EXISTS (SELECT 1 FROM import_commit_outcomes o WHERE o.row_id = r.id)
-       ORDER BY r.row_number
-       RETURNING id, tag
+       FROM fresh r
      )
-     INSERT INTO import_commit_outcomes (row_id, action, motor_id, previous)
-     SELECT r.id, 'create', created.id, NULL FROM created JOIN import_rows r ON r.batch_id = :batchId AND r.valid AND r."values"->>'tag' = created.tag`,
+     INSERT INTO import_commit_outcomes (row_id, action, motor_id, previous) SELECT row_id, 'create', motor_id, NULL FROM fresh`,
   /** What the commit did to each row, for the preview and undo. */
   recordOutcomes: `UPDATE import_rows AS r SET action = o.action, motor_id = o.motor_id, previous = o.previous
      FROM import_commit_outcomes o WHERE r.id = o.row_id`,

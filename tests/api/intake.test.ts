@@ -321,13 +321,13 @@ describe('intake: atomic commit', () => {
     const atomicSite = await createSite(organization, { name: 'Atomic site' });
     const first = await upload(session, xlsxOf([cleanHeader, ...Array.from({ length: 300 }, (_, index) => cleanRow(index + 1))]), atomicSite.id);
     await session.post(`/api/imports/${first.body.id}/commit`).expect(200);
-    // 5,000 rows: 300 updates and 4,700 creations; the commit fails once both are written (step 4),
+    // 5,000 rows: 300 updates and 4,700 creations; the commit fails once both are written (step 3),
     // before the row outcomes and the audit rows.
     const big = await upload(session, xlsxOf([cleanHeader, ...Array.from({ length: 5000 }, (_, index) => cleanRow(index + 1, 15))]), atomicSite.id);
     expect(big.body.rows).toMatchObject({ total: 5000, valid: 5000 });
     const before = await snapshot(organization.id);
     intakeTestHooks.afterCommitStep = (step) => {
-      if (step === 4) throw new Error('injected failure after the motors are written');
+      if (step === 3) throw new Error('injected failure after the motors are written');
     };
     const failed = await session.post(`/api/imports/${big.body.id}/commit`);
     expect(failed.status).toBe(500);
