@@ -80,12 +80,6 @@ function attribute(tag, name) {
   return end < 0 ? undefined : tag.slice(start, end);
 }
 
-/** Start of the value of attribute `name` in the tag xml[from, to), or -1 (no substring made: the hot path). */
-function attributeAt(xml, from, to, name) {
-  const at = xml.indexOf(` ${name}="`, from);
-  return at < 0 || at >= to ? -1 : at + name.length + 3;
-}
-
 /** The text of a shared string or an inline string (the content of <si> or <is>), as xlsx's parse_si. */
 function stringItem(content) {
   const text = content.trim();
@@ -100,8 +94,10 @@ function stringItem(content) {
   // Rich text: the runs' text, without phonetic runs.
   let parts = '';
   let cursor = 0;
+  let phonetic = text.indexOf('<rPh');
   for (;;) {
-    const phonetic = text.indexOf('<rPh', cursor);
+    // Each search starts where the last one ended: linear in the string, whatever it holds.
+    if (phonetic >= 0 && phonetic < cursor) phonetic = text.indexOf('<rPh', cursor);
     const open = text.indexOf('<t', cursor);
     if (open < 0) break;
     if (phonetic >= 0 && phonetic < open) {
@@ -248,50 +244,54 @@ export function readPlainXlsx(bytes, { sheetRows, maxPartBytes }) {
     }
     const rowEnd = xml.indexOf('</row>', rowTagEnd);
     if (rowEnd < 0 || rowEnd > end) return undefined;
+    // Searches run within this row's text, a cell's tag or a cell's content (V8 slices without
+    // copying), so a search that finds nothing never runs on to the end of the sheet.
+    const rowXml = xml.slice(rowTagEnd + 1, rowEnd);
     let column = -1;
-    let cellCursor = rowTagEnd + 1;
-    while (cellCursor < rowEnd) {
-      const cellAt = xml.indexOf('<c', cellCursor);
-      if (cellAt < 0 || cellAt >= rowEnd) break;
-      const after = xml[cellAt + 2];
+    let cellCursor = 0;
+    while (cellCursor < rowXml.length) {
+      const cellAt = rowXml.indexOf('<c', cellCursor);
+      if (cellAt < 0) break;
+      const after = rowXml[cellAt + 2];
       if (after !== ' ' && after !== '>' && after !== '/') return undefined;
-      const cellTagEnd = xml.indexOf('>', cellAt);
-      if (cellTagEnd < 0 || cellTagEnd > rowEnd) return undefined;
-      const referenceAt = attributeAt(xml, cellAt, cellTagEnd, 'r');
+      const cellTagEnd = rowXml.indexOf('>', cellAt);
+      if (cellTagEnd < 0) return undefined;
+      const cellTag = rowXml.slice(cellAt, cellTagEnd);
+      const referenceAt = cellTag.indexOf(' r="');
       if (referenceAt >= 0) {
         // "B12": letters give the column; the digits must be this row's number.
-        let position = referenceAt;
+        let position = referenceAt + 4;
         let letters = 0;
-        let code = xml.charCodeAt(position);
-        for (column = 0; code >= 65 && code <= 90; code = xml.charCodeAt(++position)) {
+        let code = cellTag.charCodeAt(position);
+        for (column = 0; code >= 65 && code <= 90; code = cellTag.charCodeAt(++position)) {
           column = column * 26 + (code - 64);
           letters += 1;
         }
         column -= 1;
         let number = 0;
         const digitsAt = position;
-        for (; code >= 48 && code <= 57; code = xml.charCodeAt(++position)) number = number * 10 + (code - 48);
+        for (; code >= 48 && code <= 57; code = cellTag.charCodeAt(++position)) number = number * 10 + (code - 48);
         if (letters === 0 || letters > 3 || position === digitsAt || code !== 34 || number !== rowNumber) return undefined;
       } else column += 1;
-      let contentStart = cellTagEnd + 1;
-      let contentEnd = contentStart;
-      if (xml.charCodeAt(cellTagEnd - 1) === 47) cellCursor = cellTagEnd + 1;
+      let content = '';
+      if (rowXml.charCodeAt(cellTagEnd - 1) === 47) cellCursor = cellTagEnd + 1;
       else {
-        contentEnd = xml.indexOf('</c>', cellTagEnd);
-        if (contentEnd < 0 || contentEnd > rowEnd) return undefined;
+        const contentEnd = rowXml.indexOf('</c>', cellTagEnd);
+        if (contentEnd < 0) return undefined;
+        content = rowXml.slice(cellTagEnd + 1, contentEnd);
+        if (content.includes('<c')) return undefined; // not the shape xlsx writes: let xlsx decide
         cellCursor = contentEnd + 4;
       }
-      const typeAt = attributeAt(xml, cellAt, cellTagEnd, 't');
-      const type = typeAt < 0 ? undefined : xml.slice(typeAt, xml.indexOf('"', typeAt));
+      const typeAt = cellTag.indexOf(' t="');
+      const type = typeAt < 0 ? undefined : cellTag.slice(typeAt + 4, cellTag.indexOf('"', typeAt + 4));
       let v;
-      const vAt = xml.indexOf('<v', contentStart);
-      if (vAt >= 0 && vAt < contentEnd) {
-        const vTagEnd = xml.indexOf('>', vAt);
-        const vEnd = xml.indexOf('</v>', vTagEnd);
-        if (vTagEnd < 0 || xml.charCodeAt(vTagEnd - 1) === 47 || vEnd < 0 || vEnd > contentEnd) return undefined;
-        if (vEnd > vTagEnd + 1) v = unescape(xml.slice(vTagEnd + 1, vEnd));
+      const vAt = content.indexOf('<v');
+      if (vAt >= 0) {
+        const vTagEnd = content.indexOf('>', vAt);
+        const vEnd = content.indexOf('</v>', vTagEnd);
+        if (vTagEnd < 0 || content.charCodeAt(vTagEnd - 1) === 47 || vEnd < 0) return undefined;
+        if (vEnd > vTagEnd + 1) v = unescape(content.slice(vTagEnd + 1, vEnd));
       }
-      const content = type === 'inlineStr' ? xml.slice(contentStart, contentEnd) : '';
       if (type === undefined && v === undefined) continue;
       if (guess.s.c > column) guess.s.c = column;
       if (guess.e.c < column) guess.e.c = column;
