@@ -80,6 +80,17 @@ function attribute(tag, name) {
   return end < 0 ? undefined : tag.slice(start, end);
 }
 
+/**
+ * Where the value of the one-letter attribute `letter` (its char code) starts in the tag text
+ * xml[from, to), or -1. A loop over the tag's own characters: a search never runs past the tag.
+ */
+function attributeIn(xml, from, to, letter) {
+  for (let index = from; index + 3 < to; index += 1) {
+    if (xml.charCodeAt(index) === 32 && xml.charCodeAt(index + 1) === letter && xml.charCodeAt(index + 2) === 61 && xml.charCodeAt(index + 3) === 34) return index + 4;
+  }
+  return -1;
+}
+
 /** The text of a shared string or an inline string (the content of <si> or <is>), as xlsx's parse_si. */
 function stringItem(content) {
   const text = content.trim();
@@ -222,6 +233,7 @@ export function readPlainXlsx(bytes, { sheetRows, maxPartBytes }) {
   const rows = []; // dense: rows[r][c] = value (undefined for no cell)
   const guess = { s: { r: 2000000, c: 2000000 }, e: { r: 0, c: 0 } };
   let rowNumber = 0;
+  let nextCell = -1;
   let cursor = xml.indexOf('>', dataStart) + 1;
   if (xml[cursor - 2] === '/' || dataEnd < 0) cursor = dataEnd < 0 ? xml.length : cursor;
   const end = dataEnd < 0 ? cursor : dataEnd;
@@ -244,53 +256,58 @@ export function readPlainXlsx(bytes, { sheetRows, maxPartBytes }) {
     }
     const rowEnd = xml.indexOf('</row>', rowTagEnd);
     if (rowEnd < 0 || rowEnd > end) return undefined;
-    // Searches run within this row's text, a cell's tag or a cell's content (V8 slices without
-    // copying), so a search that finds nothing never runs on to the end of the sheet.
-    const rowXml = xml.slice(rowTagEnd + 1, rowEnd);
     let column = -1;
-    let cellCursor = 0;
-    while (cellCursor < rowXml.length) {
-      const cellAt = rowXml.indexOf('<c', cellCursor);
-      if (cellAt < 0) break;
-      const after = rowXml[cellAt + 2];
+    let cellCursor = rowTagEnd + 1;
+    while (cellCursor < rowEnd) {
+      // The next cell anywhere ahead is remembered, so rows without cells do not search again.
+      if (nextCell < cellCursor) nextCell = xml.indexOf('<c', cellCursor);
+      if (nextCell < 0) nextCell = xml.length;
+      const cellAt = nextCell;
+      if (cellAt >= rowEnd) break;
+      const after = xml[cellAt + 2];
       if (after !== ' ' && after !== '>' && after !== '/') return undefined;
-      const cellTagEnd = rowXml.indexOf('>', cellAt);
-      if (cellTagEnd < 0) return undefined;
-      const cellTag = rowXml.slice(cellAt, cellTagEnd);
-      const referenceAt = cellTag.indexOf(' r="');
+      const cellTagEnd = xml.indexOf('>', cellAt);
+      if (cellTagEnd < 0 || cellTagEnd > rowEnd) return undefined;
+      const referenceAt = attributeIn(xml, cellAt, cellTagEnd, 114 /* r */);
       if (referenceAt >= 0) {
         // "B12": letters give the column; the digits must be this row's number.
-        let position = referenceAt + 4;
+        let position = referenceAt;
         let letters = 0;
-        let code = cellTag.charCodeAt(position);
-        for (column = 0; code >= 65 && code <= 90; code = cellTag.charCodeAt(++position)) {
+        let code = xml.charCodeAt(position);
+        for (column = 0; code >= 65 && code <= 90; code = xml.charCodeAt(++position)) {
           column = column * 26 + (code - 64);
           letters += 1;
         }
         column -= 1;
         let number = 0;
         const digitsAt = position;
-        for (; code >= 48 && code <= 57; code = cellTag.charCodeAt(++position)) number = number * 10 + (code - 48);
+        for (; code >= 48 && code <= 57; code = xml.charCodeAt(++position)) number = number * 10 + (code - 48);
         if (letters === 0 || letters > 3 || position === digitsAt || code !== 34 || number !== rowNumber) return undefined;
       } else column += 1;
+      const typeAt = attributeIn(xml, cellAt, cellTagEnd, 116 /* t */);
+      const type = typeAt < 0 ? undefined : xml.slice(typeAt, xml.indexOf('"', typeAt));
+      let v;
       let content = '';
-      if (rowXml.charCodeAt(cellTagEnd - 1) === 47) cellCursor = cellTagEnd + 1;
-      else {
-        const contentEnd = rowXml.indexOf('</c>', cellTagEnd);
-        if (contentEnd < 0) return undefined;
-        content = rowXml.slice(cellTagEnd + 1, contentEnd);
+      if (xml.charCodeAt(cellTagEnd - 1) === 47) cellCursor = cellTagEnd + 1;
+      else if (xml.startsWith('<v>', cellTagEnd + 1)) {
+        // The usual cell, <c …><v>text</v></c>: no substring but the value's.
+        const vEnd = xml.indexOf('</v>', cellTagEnd + 4);
+        if (vEnd < 0 || vEnd > rowEnd || !xml.startsWith('</c>', vEnd + 4)) return undefined;
+        if (vEnd > cellTagEnd + 4) v = unescape(xml.slice(cellTagEnd + 4, vEnd));
+        cellCursor = vEnd + 8;
+      } else {
+        const contentEnd = xml.indexOf('</c>', cellTagEnd);
+        if (contentEnd < 0 || contentEnd > rowEnd) return undefined;
+        content = xml.slice(cellTagEnd + 1, contentEnd);
         if (content.includes('<c')) return undefined; // not the shape xlsx writes: let xlsx decide
         cellCursor = contentEnd + 4;
-      }
-      const typeAt = cellTag.indexOf(' t="');
-      const type = typeAt < 0 ? undefined : cellTag.slice(typeAt + 4, cellTag.indexOf('"', typeAt + 4));
-      let v;
-      const vAt = content.indexOf('<v');
-      if (vAt >= 0) {
-        const vTagEnd = content.indexOf('>', vAt);
-        const vEnd = content.indexOf('</v>', vTagEnd);
-        if (vTagEnd < 0 || content.charCodeAt(vTagEnd - 1) === 47 || vEnd < 0) return undefined;
-        if (vEnd > vTagEnd + 1) v = unescape(content.slice(vTagEnd + 1, vEnd));
+        const vAt = content.indexOf('<v');
+        if (vAt >= 0) {
+          const vTagEnd = content.indexOf('>', vAt);
+          const vEnd = content.indexOf('</v>', vTagEnd);
+          if (vTagEnd < 0 || content.charCodeAt(vTagEnd - 1) === 47 || vEnd < 0) return undefined;
+          if (vEnd > vTagEnd + 1) v = unescape(content.slice(vTagEnd + 1, vEnd));
+        }
       }
       if (type === undefined && v === undefined) continue;
       if (guess.s.c > column) guess.s.c = column;
