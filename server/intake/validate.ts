@@ -203,6 +203,7 @@ export function startValidation(rows: ParsedRow[], context: ValidationContext): 
   const inFile: Array<{ tag: string; rows: number[] }> = [];
   for (const [tag, numbers] of rowsByTag) if (numbers.length > 1) inFile.push({ tag, rows: numbers });
 
+  const fieldIndex = fieldColumns(columns);
   const inRegister: Array<{ tag: string; row: number; motorId: number }> = [];
   let total = 0;
   let valid = 0;
@@ -211,7 +212,7 @@ export function startValidation(rows: ParsedRow[], context: ValidationContext): 
     unmappedRequired,
     validate(chunk) {
       return chunk.map((parsed) => {
-        const row = validateRow(parsed, columns, context);
+        const row = validateRow(parsed, columns, fieldIndex, context);
         const tag = row.values.tag;
         const numbers = typeof tag === 'string' ? rowsByTag.get(tag) : undefined;
         if (numbers && numbers.length > 1) {
@@ -252,16 +253,22 @@ function requireForCreate(row: ValidatedRow): void {
   }
 }
 
-function validateRow(parsed: ParsedRow, columns: Column[], context: ValidationContext): ValidatedRow {
+/** Column of each field (the last one when several map to it), for the messages that quote a cell. */
+function fieldColumns(columns: Column[]): Map<ImportField, number> {
+  return new Map(columns.map((column) => [column.field, column.index]));
+}
+
+function validateRow(parsed: ParsedRow, columns: Column[], fieldIndex: Map<ImportField, number>, context: ValidationContext): ValidatedRow {
   const values: Record<string, unknown> = {};
   const errors: RowIssue[] = [];
   const warnings: RowIssue[] = [];
-  // The cells as read, turned into text only for the messages that quote them.
-  const cells: Partial<Record<ImportField, CellValue>> = {};
-  const rawText = (field: ImportField) => cellText(cells[field]);
+  // A cell turned into text only for the messages that quote it.
+  const rawText = (field: ImportField) => {
+    const index = fieldIndex.get(field);
+    return index === undefined ? null : cellText(parsed.cells[index] ?? null);
+  };
   for (const column of columns) {
     const cell = parsed.cells[column.index] ?? null;
-    cells[column.field] = cell;
     const outcome = outcomeOf(column, cell);
     if (outcome.kind === 'error') {
       errors.push({ row: parsed.row, field: column.field, value: cellText(cell), message: outcome.message });
@@ -327,7 +334,7 @@ function validateRow(parsed: ParsedRow, columns: Column[], context: ValidationCo
   if (year !== undefined && year > context.currentYear) {
     warnings.push({ row: parsed.row, field: 'yearInstalled', value: rawText('yearInstalled'), message: `${year} is in the future` });
   }
-  return { ...parsed, values, errors, warnings, valid: errors.length === 0, action: 'skip', motorId: null };
+  return { row: parsed.row, cells: parsed.cells, values, errors, warnings, valid: errors.length === 0, action: 'skip', motorId: null };
 }
 
 /** Field labels for messages and the template. */
