@@ -8,8 +8,8 @@
  *   are refused, the running job goes back to the queue, the process logs "stopped cleanly" and exits 0.
  *
  * "In the middle" is made certain, not left to timing: the import is killed once its progress row
- * shows a written chunk; the business case once its row is inserted and its transaction waits on the
- * audit table, which the test holds locked.
+ * shows a written step and its transaction waits on the audit table, which the test holds locked; the
+ * business case once its row is inserted and its transaction waits on that table too.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
@@ -226,18 +226,27 @@ describe('the server killed or stopped in the middle of its work', () => {
     batchId = preview.body.id as number;
     const auditsBefore = await scalar('SELECT count(*) AS value FROM audit_logs');
 
+    // The commit's last step writes the motors' history: holding the audit table keeps the commit
+    // in the middle (motors written in its transaction, progress shown) for as long as the test needs.
+    const holder = await openHolder();
+    await holder.query('LOCK TABLE audit_logs IN SHARE MODE');
     const commit = post(`/api/imports/${batchId}/commit`).then(
       (response) => response.status,
       () => 'cut',
     );
-    const progress = await until('a committed chunk', async () => {
+    const progress = await until('a committed step', async () => {
       const row = await db.query<{ status: string; progress: number }>('SELECT status, progress FROM import_batches WHERE id = $1', [batchId]);
       return (row.rows[0]?.progress ?? 0) > 0 ? row.rows[0] : undefined;
     });
+    const pid = await waiterOnAuditTable();
     await kill(server!);
     expect(progress.status).toBe('committing');
     expect(progress.progress).toBeLessThan(1);
     expect(await commit).toBe('cut');
+    await holder.query('ROLLBACK');
+    await holder.end();
+    // The orphaned backend finds its client gone and rolls back.
+    await until('the killed server’s transaction to end', async () => ((await scalar('SELECT count(*) AS value FROM pg_stat_activity WHERE pid = $1', [pid])) === 0 ? true : undefined), 30_000);
 
     // None of it: no motor, no audit row, no row outcome; the batch still reads `committing`.
     expect(await scalar('SELECT count(*) AS value FROM motors WHERE site_id = $1', [siteId])).toBe(0);
