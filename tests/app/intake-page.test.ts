@@ -9,6 +9,7 @@ import IntakeMapping from 'components/IntakeMapping.vue';
 import IntakePage from 'pages/IntakePage.vue';
 import { resetPowerUnitForTests } from 'composables/usePowerUnit';
 import { createHarness, fakeFetch, flushPromises, mountInLayout, mountWithApp } from './mount';
+import { stubXhr } from './fake-xhr';
 import { importDetail, sitesList } from './motor-fixtures';
 
 beforeEach(() => {
@@ -21,43 +22,6 @@ afterEach(() => {
 });
 
 const batchList = (items: unknown[] = []) => ({ body: { items, total: items.length, page: 1, pageSize: 10 } });
-
-/** An XMLHttpRequest that answers every send with one status and body (uploads go through XHR for progress). */
-function fakeXhr(status: number, body: unknown) {
-  const sent: { url: string; headers: Record<string, string>; form: FormData }[] = [];
-  class FakeXhr {
-    status = 0;
-    statusText = '';
-    responseText = '';
-    withCredentials = false;
-    upload: { onprogress: ((event: { lengthComputable: boolean; loaded: number; total: number }) => void) | null } = { onprogress: null };
-    onload: (() => void) | null = null;
-    onerror: (() => void) | null = null;
-    onabort: (() => void) | null = null;
-    private url = '';
-    private headers: Record<string, string> = {};
-    open(_method: string, url: string) {
-      this.url = url;
-    }
-    setRequestHeader(name: string, value: string) {
-      this.headers[name] = value;
-    }
-    abort() {
-      this.onabort?.();
-    }
-    send(form: FormData) {
-      sent.push({ url: this.url, headers: this.headers, form });
-      setTimeout(() => {
-        this.upload.onprogress?.({ lengthComputable: true, loaded: 50, total: 100 });
-        this.status = status;
-        this.responseText = JSON.stringify(body);
-        this.onload?.();
-      }, 0);
-    }
-  }
-  vi.stubGlobal('XMLHttpRequest', FakeXhr);
-  return sent;
-}
 
 describe('IntakeMapping', () => {
   it('lists every header with its first values and the field it becomes', async () => {
@@ -197,7 +161,7 @@ describe('IntakePage', () => {
 
   it('shows the server’s own words for a file it refuses', async () => {
     fakeFetch({ 'GET /api/sites': { body: sitesList }, 'GET /api/imports': batchList(), 'GET /api/auth/csrf': { body: { token: 't' } } });
-    const sent = fakeXhr(413, { error: { code: 'too-large', message: 'The file is larger than 10 MB.' } });
+    const sent = stubXhr(() => ({ status: 413, body: { error: { code: 'too-large', message: 'The file is larger than 10 MB.' } } }));
     const harness = createHarness('engineer');
     await harness.router.push({ name: 'intake' });
     const wrapper = mountInLayout(IntakePage, harness);

@@ -7,8 +7,9 @@ vi.setConfig({ testTimeout: 30_000 });
 import RetrofitLogDetailPage from 'pages/RetrofitLogDetailPage.vue';
 import type { RetrofitDetail, RetrofitPatch } from 'shared/retrofit';
 import type { Role } from 'shared/roles';
+import { stubXhr } from './fake-xhr';
 import { createHarness, fakeFetch, flushPromises, mountInLayout, type FakeRoutes } from './mount';
-import { detail, fakeXhr, meterData, noMeterData, notReady, verification } from './retrofit-log-fixtures';
+import { detail, meterData, noMeterData, notReady, verification } from './retrofit-log-fixtures';
 
 afterEach(() => {
   vi.unstubAllGlobals();
@@ -90,8 +91,7 @@ describe('RetrofitLogDetailPage', () => {
         return { body: installed };
       },
     });
-    const { sent, FakeXhr } = fakeXhr(() => ({ status: 201, body: { id: 40, retrofitId: 12, kind: 'photo', fileName: 'nameplate.jpg', contentType: 'image/jpeg', sizeBytes: 3, userId: 7, createdAt: '2026-11-12T10:00:00.000Z' } }));
-    vi.stubGlobal('XMLHttpRequest', FakeXhr);
+    const sent = stubXhr(() => ({ status: 201, body: { id: 40, retrofitId: 12, kind: 'photo', fileName: 'nameplate.jpg', contentType: 'image/jpeg', sizeBytes: 3, userId: 7, createdAt: '2026-11-12T10:00:00.000Z' } }));
 
     await wrapper.get(testid('retrofit-transition-installed')).trigger('click');
     await flushPromises();

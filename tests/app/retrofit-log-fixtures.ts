@@ -161,36 +161,3 @@ export const sitesList = {
   page: 1,
   pageSize: 500,
 };
-
-/** An XMLHttpRequest that answers every send with one status and body (uploads go through XHR for progress). */
-export function fakeXhr(answer: (form: FormData, url: string) => { status: number; body: unknown }) {
-  const sent: { url: string; form: FormData }[] = [];
-  class FakeXhr {
-    status = 0;
-    statusText = '';
-    responseText = '';
-    withCredentials = false;
-    upload: { onprogress: ((event: { lengthComputable: boolean; loaded: number; total: number }) => void) | null } = { onprogress: null };
-    onload: (() => void) | null = null;
-    onerror: (() => void) | null = null;
-    onabort: (() => void) | null = null;
-    private url = '';
-    open(_method: string, url: string) {
-      this.url = url;
-    }
-    setRequestHeader() {}
-    abort() {
-      this.onabort?.();
-    }
-    send(form: FormData) {
-      sent.push({ url: this.url, form });
-      const { status, body } = answer(form, this.url);
-      setTimeout(() => {
-        this.status = status;
-        this.responseText = JSON.stringify(body);
-        this.onload?.();
-      }, 0);
-    }
-  }
-  return { sent, FakeXhr };
-}

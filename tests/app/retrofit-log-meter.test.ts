@@ -6,8 +6,9 @@ vi.setConfig({ testTimeout: 30_000 });
 
 import RetrofitLogMeterPeriod from 'components/RetrofitLogMeterPeriod.vue';
 import { meterRefusalFrom, previewMeterText, splitLine } from 'components/retrofit-log-meter';
+import { stubXhr } from './fake-xhr';
 import { createHarness, fakeFetch, flushPromises, mountWithApp } from './mount';
-import { fakeXhr, meterData } from './retrofit-log-fixtures';
+import { meterData } from './retrofit-log-fixtures';
 
 afterEach(() => {
   vi.unstubAllGlobals();
@@ -101,8 +102,7 @@ describe('RetrofitLogMeterPeriod', () => {
         },
       },
     };
-    const { sent, FakeXhr } = fakeXhr(() => ({ status: 400, body: refusal }));
-    vi.stubGlobal('XMLHttpRequest', FakeXhr);
+    const sent = stubXhr(() => ({ status: 400, body: refusal }));
     const wrapper = mountPeriod();
     await choose(wrapper, 'timestamp;Power [kW]\n2026-03-02 00:00;1\n2026-03-02 00:00;2\n2026-03-02 01:00;abc');
     wrapper.findAllComponents({ name: 'QSelect' })[2]!.vm.$emit('update:modelValue', 'feeder');
