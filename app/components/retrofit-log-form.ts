@@ -131,3 +131,6 @@ export interface TransitionSubmit {
   body: Omit<RetrofitPatch, 'version'>;
   files: Array<{ file: File; kind: RetrofitFileKind }>;
 }
+
+/** How a save of the record editor ended: saved, refused, or met a newer version (409). */
+export type SaveOutcome = 'saved' | 'failed' | 'stale';

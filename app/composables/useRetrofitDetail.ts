@@ -6,6 +6,12 @@ import { ApiError } from 'src/api/client';
 import { retrofitsApi } from 'src/api/retrofits';
 import { errorMessage } from './useNotify';
 
+/** Why a change was not saved: the sentence to show, and whether someone else saved first (409). */
+export interface PatchProblem {
+  message: string;
+  stale: boolean;
+}
+
 export function useRetrofitDetail(id: number) {
   const retrofit = shallowRef<RetrofitDetail | null>(null);
   const loading = ref(false);
@@ -47,11 +53,11 @@ export function useRetrofitDetail(id: number) {
 
   /**
    * A transition and/or data with the version read. Answers null when it worked, else the
-   * sentence to show; a stale version reloads the retrofit first.
+   * sentence to show and whether the version was stale (then the retrofit is reloaded first).
    */
-  async function patch(body: Omit<RetrofitPatch, 'version'>): Promise<string | null> {
+  async function patch(body: Omit<RetrofitPatch, 'version'>): Promise<PatchProblem | null> {
     const current = retrofit.value;
-    if (!current) return 'The retrofit is not loaded.';
+    if (!current) return { message: 'The retrofit is not loaded.', stale: false };
     saving.value = true;
     try {
       retrofit.value = await retrofitsApi.update(id, { ...body, version: current.version } as RetrofitPatch);
@@ -61,9 +67,9 @@ export function useRetrofitDetail(id: number) {
     } catch (error) {
       if (error instanceof ApiError && error.isStaleVersion) {
         await loadRetrofit();
-        return 'Someone changed this retrofit meanwhile; the current version is shown now. Check it and try again.';
+        return { message: 'Someone changed this retrofit meanwhile; the current version is shown now. Check it and try again.', stale: true };
       }
-      return errorMessage(error);
+      return { message: errorMessage(error), stale: false };
     } finally {
       saving.value = false;
     }

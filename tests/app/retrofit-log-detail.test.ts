@@ -169,6 +169,29 @@ describe('RetrofitLogDetailPage', () => {
     expect(wrapper.get(testid('retrofit-notes')).text()).toBe('Changed by a colleague');
   });
 
+  it('keeps the record editor’s edits on a stale version, says so with the banner, and reloads only when asked', async () => {
+    let reads = 0;
+    const { wrapper, calls } = await open('engineer', detail(), {
+      'GET /api/retrofits/12': () => ({ body: detail(reads++ === 0 ? {} : { version: 4, notes: 'Changed by a colleague' }) }),
+      'PATCH /api/retrofits/12': { status: 409, body: { error: { code: 'stale-version', message: 'This retrofit was changed by someone else', details: null } } },
+    });
+    await wrapper.get(testid('retrofit-record-edit')).trigger('click');
+    await flushPromises();
+    const notes = () => wrapper.get<HTMLTextAreaElement>(`${testid('retrofit-record-notes')} textarea, textarea${testid('retrofit-record-notes')}`);
+    await notes().setValue('Cable gland replaced');
+    await wrapper.get(testid('retrofit-record-save')).trigger('click');
+    await flushPromises();
+    expect(patches(calls)).toHaveLength(1);
+    expect(wrapper.get(testid('retrofit-record-stale')).text()).toContain('Someone else saved this retrofit after you opened it');
+    // The user's edit stays, and a second save cannot overwrite the colleague's version unseen.
+    expect(notes().element.value).toBe('Cable gland replaced');
+    expect(wrapper.get(testid('retrofit-record-save')).attributes('disabled')).toBeDefined();
+    await wrapper.get(testid('retrofit-record-reload')).trigger('click');
+    await flushPromises();
+    expect(wrapper.find(testid('retrofit-record-stale')).exists()).toBe(false);
+    expect(notes().element.value).toBe('Changed by a colleague');
+  });
+
   it('shows the verified savings with units, uncertainty, realised share, both periods and the method', async () => {
     // The server answers no transition to a viewer.
     const installed = detail({ status: 'installed', allowedTransitions: [], installationDate: '2026-11-12' });
