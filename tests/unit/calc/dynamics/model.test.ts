@@ -1,0 +1,154 @@
+/**
+ * The BLDC model's fused RK4 step and its branch-light trapezoid against their plain definitions:
+ * the fused step must give what the generic RK4 of integrator.ts gives with the model's own
+ * derivative (Hairer, Nørsett & Wanner 1993, Table II.1.2), and the back-EMF the model applies must
+ * follow trapezoidShape at every angle and flat-top width.
+ */
+import { describe, expect, it } from 'vitest';
+import { createRk4Workspace, rk4Step } from '../../../../calc/dynamics/integrator.js';
+import { createLoadState } from '../../../../calc/dynamics/load.js';
+import {
+  AUX_EMF,
+  AUX_SIZE,
+  AUX_TERMINAL_V,
+  AUX_TORQUE,
+  BldcModel,
+  STATE_SIZE,
+  createBldcDerivative,
+  halfTransitionFromFlatTop,
+  trapezoidShape,
+  type BldcModelConfig,
+} from '../../../../calc/dynamics/model.js';
+
+/** A seeded generator (mulberry32), so every run checks the same states. */
+function generator(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+function config(options: { flatTopDeg: number; rectifier: boolean; legFactor: number[]; closed: number[]; quadratic: boolean }): BldcModelConfig {
+  const { state } = createLoadState(options.quadratic ? { kind: 'quadratic', torqueNm: 2, atSpeedRpm: 3000 } : { kind: 'constant', torqueNm: 1.5 }, undefined);
+  return {
+    phaseResistanceOhm: 0.5,
+    effectiveInductanceH: 2.5e-3,
+    backEmfConstantVsPerRad: 0.25,
+    polePairs: 2,
+    totalInertiaKgM2: 2e-3,
+    viscousFrictionNmsPerRad: 1e-4,
+    halfTransition: halfTransitionFromFlatTop(options.flatTopDeg),
+    shapeTable: null,
+    legFactor: Float64Array.from(options.legFactor),
+    closed: Float64Array.from(options.closed),
+    load: state,
+    rectifier: options.rectifier ? { peakLineV: Math.SQRT2 * 400, angularFrequency: 2 * Math.PI * 50, capacitanceF: 1e-3, sourceResistanceOhm: 0.05 } : null,
+    aux: new Float64Array(AUX_SIZE),
+  };
+}
+
+// Leg states of a six-step inverter: two legs switched, the third freewheeling or floating, all open.
+const LEG_STATES = [
+  { legFactor: [1, 0, 0], closed: [1, 1, 0] },
+  { legFactor: [0.6, 0, 1], closed: [1, 1, 1] },
+  { legFactor: [0, 1, 0], closed: [0, 1, 0] },
+  { legFactor: [0, 0, 0], closed: [0, 0, 0] },
+];
+
+describe('BldcModel.rk4Step (the simulation inner step)', () => {
+  it('gives the generic RK4 step of the same derivative, state, derivative and auxiliary outputs', () => {
+    const random = generator(20261202);
+    let checked = 0;
+    for (const legs of LEG_STATES) {
+      for (const rectifier of [false, true]) {
+        for (const flatTopDeg of [120, 150, 180]) {
+          const model = new BldcModel(config({ flatTopDeg, rectifier, quadratic: rectifier, ...legs }));
+          const reference = config({ flatTopDeg, rectifier, quadratic: rectifier, ...legs });
+          const derivative = createBldcDerivative(reference);
+          for (let trial = 0; trial < 20; trial += 1) {
+            const x = new Float64Array(STATE_SIZE);
+            x[0] = (random() - 0.5) * 40;
+            x[1] = (random() - 0.5) * 40;
+            x[2] = -(x[0] as number) - (x[1] as number);
+            x[3] = random() * 400;
+            x[4] = random() * 50;
+            x[5] = 250 + random() * 300;
+            for (let k = 6; k < STATE_SIZE; k += 1) x[k] = random() * 100;
+            const t = random() * 0.1;
+            const h = 1e-6 + random() * 1e-5;
+            const k1 = new Float64Array(STATE_SIZE);
+            derivative(t, x, k1);
+
+            const expected = new Float64Array(STATE_SIZE);
+            rk4Step(derivative, t, x, k1, h, createRk4Workspace(STATE_SIZE), expected);
+            const expectedSlope = new Float64Array(STATE_SIZE);
+            derivative(t + h, expected, expectedSlope);
+
+            const out = new Float64Array(STATE_SIZE);
+            const slope = new Float64Array(STATE_SIZE);
+            const aux = new Float64Array(AUX_SIZE);
+            model.time = t;
+            model.stepS = h;
+            model.rk4Step(x, k1, out, slope, aux);
+
+            for (let k = 0; k < STATE_SIZE; k += 1) {
+              expect(out[k]).toBeCloseTo(expected[k] as number, 9);
+              expect(slope[k]).toBeCloseTo(expectedSlope[k] as number, 6);
+            }
+            for (let k = 0; k < AUX_SIZE; k += 1) expect(aux[k]).toBeCloseTo(reference.aux[k] as number, 9);
+            expect(model.time).toBe(t + h);
+            checked += 1;
+          }
+        }
+      }
+    }
+    expect(checked).toBe(LEG_STATES.length * 2 * 3 * 20);
+  });
+});
+
+describe('the back-EMF the model applies', () => {
+  it('follows trapezoidShape for phase a, b (−120°) and c (+120°) at every angle and flat-top width', () => {
+    for (const flatTopDeg of [10, 30, 60, 90, 120, 150, 179, 180]) {
+      const setup = config({ flatTopDeg, rectifier: false, quadratic: false, legFactor: [0, 0, 0], closed: [0, 0, 0] });
+      const model = new BldcModel(setup);
+      const halfTransition = halfTransitionFromFlatTop(flatTopDeg);
+      const x = new Float64Array(STATE_SIZE);
+      const dx = new Float64Array(STATE_SIZE);
+      const speed = 100;
+      x[3] = speed;
+      x[5] = 300;
+      // 2 pole pairs: one electrical period is π mechanical radians; 720 points over two periods, offset
+      // from the trapezoid's corners (at a square wave's jump both sides are right, and rounding picks one).
+      for (let index = 0; index < 720; index += 1) {
+        const turns = (index + 0.37) / 360;
+        const phase = turns % 1;
+        x[4] = turns * Math.PI;
+        model.evaluate(x, dx, setup.aux);
+        const emf = (shift: number) => 0.25 * speed * trapezoidShape((((phase + shift) % 1) + 1) % 1, halfTransition);
+        expect(setup.aux[AUX_EMF]).toBeCloseTo(emf(0), 9);
+        expect(setup.aux[AUX_EMF + 1]).toBeCloseTo(emf(-1 / 3), 9);
+        expect(setup.aux[AUX_EMF + 2]).toBeCloseTo(emf(1 / 3), 9);
+      }
+    }
+  });
+
+  it('gives zero torque and floats every terminal when all legs are open and no current flows', () => {
+    const setup = config({ flatTopDeg: 120, rectifier: false, quadratic: false, legFactor: [0, 0, 0], closed: [0, 0, 0] });
+    const model = new BldcModel(setup);
+    const x = new Float64Array(STATE_SIZE);
+    x[3] = 100;
+    x[4] = 0.3;
+    x[5] = 300;
+    const dx = new Float64Array(STATE_SIZE);
+    model.evaluate(x, dx, setup.aux);
+    expect(setup.aux[AUX_TORQUE]).toBe(0);
+    expect(dx[0]).toBe(0);
+    // Mid-bus less the mean EMF, plus each phase's EMF (common practice, symmetric stray capacitance).
+    const mean = ((setup.aux[AUX_EMF] as number) + (setup.aux[AUX_EMF + 1] as number) + (setup.aux[AUX_EMF + 2] as number)) / 3;
+    expect(setup.aux[AUX_TERMINAL_V]).toBeCloseTo(150 - mean + (setup.aux[AUX_EMF] as number), 9);
+  });
+});
