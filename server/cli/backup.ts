@@ -39,8 +39,8 @@ export function formatBytes(bytes: number): string {
 }
 
 async function main(): Promise<void> {
-  const file = process.argv[2];
-  if (!file || file.startsWith('-')) {
+  const [file, ...extra] = process.argv.slice(2);
+  if (!file || file.startsWith('-') || extra.length > 0) {
     process.stderr.write('Usage: npm run backup -- <file>   (writes the database to <file> in pg_dump custom format)\n');
     process.exit(2);
   }
