@@ -22,12 +22,17 @@ const CLEAR_PUBLIC_SCHEMA = 'DROP SCHEMA public CASCADE;\nCREATE SCHEMA public;\
 
 class RestoreRefused extends Error {}
 
-/** pg_restore turns the dump into SQL; psql runs it in one transaction and stops at the first error. */
+/**
+ * pg_restore turns the dump into SQL; psql runs it inside one transaction and stops at the first
+ * error. The transaction is committed only once pg_restore has exited cleanly: a backup that is cut
+ * off or damaged part way still reads as a backup (its table of contents comes first), and psql's own
+ * --single-transaction would commit whatever SQL arrived before pg_restore failed.
+ */
 function restoreInto(url: string, file: string, force: boolean): Promise<void> {
   const { conninfo, env } = clientConnection(url);
   return new Promise((resolvePromise, reject) => {
     const reader = spawn(clientBinary('pg_restore'), ['--no-owner', '--no-privileges', '--file=-', file], { stdio: ['ignore', 'pipe', 'pipe'] });
-    const writer = spawn(clientBinary('psql'), ['--no-psqlrc', '--quiet', '--set=ON_ERROR_STOP=1', '--single-transaction', `--dbname=${conninfo}`], {
+    const writer = spawn(clientBinary('psql'), ['--no-psqlrc', '--quiet', '--set=ON_ERROR_STOP=1', `--dbname=${conninfo}`], {
       env,
       stdio: ['pipe', 'ignore', 'pipe'],
     });
@@ -36,12 +41,15 @@ function restoreInto(url: string, file: string, force: boolean): Promise<void> {
     writer.stderr.on('data', (chunk: Buffer) => (errors += chunk.toString()));
     // psql may stop reading at an error; the pipe then breaks, which the exit codes report.
     writer.stdin.on('error', () => undefined);
-    if (force) writer.stdin.write(CLEAR_PUBLIC_SCHEMA);
-    reader.stdout.pipe(writer.stdin);
-    const exits = [reader, writer].map((child) => new Promise<number | null>((done) => child.once('close', (code) => done(code))));
+    writer.stdin.write(force ? `BEGIN;\n${CLEAR_PUBLIC_SCHEMA}` : 'BEGIN;\n');
+    reader.stdout.pipe(writer.stdin, { end: false });
+    // 'close' comes after pg_restore's output has ended, so everything it wrote is already in the pipe.
+    const readerExit = new Promise<number | null>((done) => reader.once('close', (code) => done(code)));
+    void readerExit.then((code) => writer.stdin.end(code === 0 ? 'COMMIT;\n' : 'ROLLBACK;\n'));
+    const writerExit = new Promise<number | null>((done) => writer.once('close', (code) => done(code)));
     reader.once('error', reject);
     writer.once('error', reject);
-    void Promise.all(exits).then(([readerCode, writerCode]) => {
+    void Promise.all([readerExit, writerExit]).then(([readerCode, writerCode]) => {
       if (readerCode === 0 && writerCode === 0) resolvePromise();
       else reject(new Error(`pg_restore exited ${readerCode}, psql exited ${writerCode}; nothing was changed.\n${errors.trim()}`));
     });

@@ -8,7 +8,7 @@
  */
 import { execFile } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { chmodSync, existsSync, mkdtempSync, rmSync, statSync } from 'node:fs';
+import { chmodSync, existsSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
@@ -19,7 +19,7 @@ import { setLogLevel } from '../../server/lib/logger.js';
 import { migrator, seeder } from '../../server/lib/migrator.js';
 
 const suffix = randomBytes(4).toString('hex');
-const names = { source: `statorline_backup_${suffix}`, fresh: `statorline_restored_${suffix}`, again: `statorline_again_${suffix}` };
+const names = { source: `statorline_backup_${suffix}`, fresh: `statorline_restored_${suffix}`, again: `statorline_again_${suffix}`, cut: `statorline_cut_${suffix}` };
 let workDir: string;
 
 function urlOf(database: string): string {
@@ -142,6 +142,34 @@ describe('npm run backup / npm run restore', () => {
     expect(usage.stderr).toContain('Usage: npm run backup -- <file>');
 
     console.info(`backup of the demo: ${(statSync(file).size / 1024).toFixed(1)} kB in ${backupMs} ms (command wall time, including tsx start); ${backup.stdout.trim()}; ${restore.stdout.trim()}`);
+  }, 90_000);
+
+  it('refuses bad arguments and a cut-off backup, leaving the target database as it was', async () => {
+    const file = join(workDir, 'demo.dump');
+    // A backup cut off part way (a copy interrupted, a full disk): its table of contents at the start is
+    // intact, so it reads as a backup, but pg_restore stops at the missing data. None of it may stay.
+    const whole = readFileSync(file);
+    const cut = join(workDir, 'cut.dump');
+    writeFileSync(cut, whole.subarray(0, Math.floor(whole.length * 0.97)));
+    await admin(`CREATE DATABASE ${names.cut}`);
+    const partial = await npmRun('restore', [cut], { DATABASE_URL: urlOf(names.cut) });
+    expect(partial.code).toBe(1);
+    expect(partial.stderr).toMatch(/^The restore failed: pg_restore exited 1, psql exited \d+; nothing was changed\./);
+    expect(await withClient(names.cut, fingerprint)).toEqual({});
+
+    for (const args of [[], ['--force'], [file, file], [file, '--frce']]) {
+      const usage = await npmRun('restore', args, { DATABASE_URL: urlOf(names.cut) });
+      expect(usage.code, args.join(' ')).toBe(2);
+      expect(usage.stderr).toBe('Usage: npm run restore -- <file> [--force]   (loads a backup; --force replaces a database that is not empty)\n');
+    }
+    const missing = await npmRun('restore', [join(workDir, 'no-such.dump')], { DATABASE_URL: urlOf(names.cut) });
+    expect(missing.code).toBe(1);
+    expect(missing.stderr).toBe(`${join(workDir, 'no-such.dump')} does not exist.\n`);
+    const extra = await npmRun('backup', [join(workDir, 'one.dump'), join(workDir, 'two.dump')], { DATABASE_URL: urlOf(names.cut) });
+    expect(extra.code).toBe(2);
+    expect(extra.stderr).toContain('Usage: npm run backup -- <file>');
+    expect(existsSync(join(workDir, 'one.dump'))).toBe(false);
+    expect(await withClient(names.cut, fingerprint)).toEqual({});
   }, 90_000);
 
   it('restores into the private cluster of a fresh DATA_DIR, and backs up from it', async () => {
