@@ -11,7 +11,8 @@ import { migrator } from '../../server/lib/migrator.js';
 import { startCluster } from '../../server/lib/postgres-cluster.js';
 import { setUploadDir } from '../../server/lib/uploads.js';
 import { Tenant } from '../../server/lib/tenant.js';
-import { Organization, Site, User } from '../../server/models/index.js';
+import { Organization, User } from '../../server/models/index.js';
+import { createSite } from '../support/api.js';
 
 export async function benchDatabase() {
   setLogLevel('silent');
@@ -24,19 +25,7 @@ export async function benchDatabase() {
   setUploadDir(join(dataDir, 'uploads'));
   const organization = await Organization.create({ name: 'Bench Works', slug: 'bench-works' });
   const user = await User.create({ organizationId: organization.id, email: 'bench@bench.example', name: 'Bench', role: 'engineer', passwordHash: null });
-  const site = await Site.create({
-    organizationId: organization.id,
-    name: 'Bench site',
-    code: null,
-    location: null,
-    voltageV: 400,
-    frequencyHz: 50,
-    energyPricePerKwh: '0.15',
-    demandChargePerKwMonth: '5',
-    currency: 'EUR',
-    co2KgPerKwh: 0.25,
-    defaultHoursPerYear: 6000,
-  });
+  const site = await createSite(organization, { name: 'Bench site' });
   const tenant = new Tenant({ id: user.id, email: user.email, name: user.name, role: 'engineer', organization: { id: organization.id, name: organization.name } });
   return {
     sequelize,

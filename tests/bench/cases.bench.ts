@@ -16,7 +16,8 @@ import { setLogLevel } from '../../server/lib/logger.js';
 import { migrator } from '../../server/lib/migrator.js';
 import { startCluster } from '../../server/lib/postgres-cluster.js';
 import { Tenant } from '../../server/lib/tenant.js';
-import { BusinessCase, Motor, Organization, Site, User } from '../../server/models/index.js';
+import { BusinessCase, Motor, Organization, User } from '../../server/models/index.js';
+import { createSite } from '../support/api.js';
 
 const MOTORS = 10_000;
 const RUNS = 3;
@@ -56,19 +57,7 @@ async function main() {
     const sequelize = connectDatabase(cluster.url('statorline_bench'), { poolMax: 4 });
     await migrator(sequelize).up();
     const organization = await Organization.create({ name: 'Bench Works', slug: 'bench-works' });
-    const site = await Site.create({
-      organizationId: organization.id,
-      name: 'Large plant',
-      code: null,
-      location: null,
-      voltageV: 400,
-      frequencyHz: 50,
-      energyPricePerKwh: '0.15',
-      demandChargePerKwMonth: '5',
-      currency: 'EUR',
-      co2KgPerKwh: 0.25,
-      defaultHoursPerYear: 6000,
-    });
+    const site = await createSite(organization, { name: 'Large plant' });
     const user = await User.create({ organizationId: organization.id, email: 'bench@bench.example', name: 'Bench engineer', role: 'engineer', status: 'active', passwordHash: null });
     const rows = Array.from({ length: MOTORS }, (_, index) => {
       const application = APPLICATIONS[index % APPLICATIONS.length]!;

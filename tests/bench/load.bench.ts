@@ -71,7 +71,8 @@ async function serve(): Promise<void> {
   const { createApp } = await import('../../server/app.js');
   const { createMailer } = await import('../../server/lib/mail.js');
   const { createCase } = await import('../../server/cases/service.js');
-  const { Organization, Site, User } = await import('../../server/models/index.js');
+  const { Organization, User } = await import('../../server/models/index.js');
+  const { createSite } = await import('../support/api.js');
 
   setLogLevel(process.env.LOAD_LOG === '1' ? 'warn' : 'silent');
   // Count every query sent to PostgreSQL (Sequelize's pool and the session store's pool both use pg.Client).
@@ -101,21 +102,7 @@ async function serve(): Promise<void> {
   const organization = await Organization.create({ name: 'Load Works', slug: 'load-works' });
   const sites = [];
   for (let index = 0; index < SITES; index += 1) {
-    sites.push(
-      await Site.create({
-        organizationId: organization.id,
-        name: `Plant ${index + 1}`,
-        code: null,
-        location: null,
-        voltageV: 400,
-        frequencyHz: 50,
-        energyPricePerKwh: '0.15',
-        demandChargePerKwMonth: '5',
-        currency: 'EUR',
-        co2KgPerKwh: 0.25,
-        defaultHoursPerYear: 6000,
-      }),
-    );
+    sites.push(await createSite(organization, { name: `Plant ${index + 1}` }));
   }
   // One INSERT … SELECT from generate_series (as register.bench.ts): 100,000 rows in seconds.
   await sequelize.query(
