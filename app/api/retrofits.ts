@@ -15,9 +15,9 @@ import type {
   RetrofitStatus,
   VerificationOutput,
   VerificationSummary,
+  retrofitCreateBody,
 } from 'shared/retrofit';
 import type { z } from 'zod';
-import type { retrofitCreateBody } from 'shared/retrofit';
 import { api } from './client';
 import { uploadForm, type UploadOptions } from './transfer';
 
