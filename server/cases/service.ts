@@ -14,7 +14,7 @@
  */
 import { promisify } from 'node:util';
 import { gzip } from 'node:zlib';
-import { literal, Op, QueryTypes, type CreationAttributes, type Transaction } from 'sequelize';
+import { Op, QueryTypes, type CreationAttributes, type Transaction } from 'sequelize';
 import { database } from '../lib/database.js';
 import { AppError, conflict } from '../lib/errors.js';
 import { orderFrom, pageWindow } from '../lib/lists.js';
@@ -170,20 +170,12 @@ export async function latestCases(tenant: Tenant, limit = 5): Promise<CaseSummar
   return (await listCases(tenant, { page: 1, pageSize: limit, sort: '-createdAt' })).items;
 }
 
-export async function getCase(tenant: Tenant, id: number): Promise<CaseOutput> {
-  const row = await tenant.findById(BusinessCase, id, 'Business case', {
-    attributes: { exclude: ['inputs'], include: [[literal(INPUTS_DIGEST_SQL), 'inputsDigest']] },
-  });
-  return outputOf(row, row.get('inputsDigest' as keyof BusinessCase) as unknown as InputsDigest);
-}
-
 /**
  * Recently read reports' immutable parts (results as JSON text, the inputs' digest), by case id, least
- * recently used first. A case's results never
- * change after generation (only status, decision and sendings do), so the text can be kept: reading
- * a report then moves no megabytes through JSON.parse and JSON.stringify (a 4,000-motor site's
- * results are about 3 MB; under 200 concurrent readers that was the whole cost, see
- * tests/bench/load.bench.ts). Bounded by RESULTS_CACHE_BYTES per process.
+ * recently used first. A case's results never change after generation (only status, decision and
+ * sendings do), so the text can be kept: reading a report then moves no megabytes through JSON.parse
+ * and JSON.stringify (a 4,000-motor site's results are about 3 MB; under 200 concurrent readers that
+ * was the whole cost, see tests/bench/load.bench.ts). Bounded by RESULTS_CACHE_BYTES per process.
  */
 const resultsCache = new Map<number, { inputs: InputsDigest; results: string }>();
 const RESULTS_CACHE_BYTES = 64 * 1024 * 1024;
@@ -213,7 +205,7 @@ async function immutableParts(id: number): Promise<{ inputs: InputsDigest; resul
 }
 
 /**
- * `GET /api/cases/:id` as JSON text: the document of getCase, its stored results spliced in as the
+ * `GET /api/cases/:id` as JSON text (a CaseOutput), its stored results spliced in as the
  * text PostgreSQL (or the cache) holds. The organisation check is the row read through the tenant
  * (its small columns only: status, decision and sendings are always read fresh).
  */
@@ -222,7 +214,7 @@ export async function getCaseJson(tenant: Tenant, id: number): Promise<string> {
   return spliceResults(head, results);
 }
 
-/** The document of getCase without its results as JSON text (what changes: status, decision, sendings), and the results' text. */
+/** The case's document without its results as JSON text (what changes: status, decision, sendings), and the results' text. */
 async function caseParts(tenant: Tenant, id: number): Promise<{ rowId: number; head: string; results: string }> {
   const row = await tenant.findById(BusinessCase, id, 'Business case', { attributes: { exclude: ['inputs', 'results'] } });
   const parts = await immutableParts(row.id);
