@@ -117,7 +117,7 @@ async function run() {
   if (range.e.c - range.s.c + 1 > limits.maxColumns) {
     return refuse('too-many-columns', `The sheet has ${range.e.c - range.s.c + 1} columns; at most ${limits.maxColumns} can be imported.`);
   }
-  const table = typeof sheet.table === 'function' ? sheet.table() : sheet.table;
+  const table = sheet.table();
   const rows = [];
   for (let index = 0; index < table.length; index += 1) {
     const source = table[index];

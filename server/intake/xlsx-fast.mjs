@@ -10,7 +10,7 @@
  * inflated with an output limit, whatever sizes the archive declares.
  *
  * Out: { sheetName, ref, fullref, table } where `ref`/`fullref` are ranges { s: { r, c }, e: { r, c } }
- * (0-based, like xlsx's `!ref`/`!fullref`) and `table` holds the rows of `ref`, as sheet_to_json's.
+ * (0-based, like xlsx's `!ref`/`!fullref`) and `table()` gives the rows of `ref`, as sheet_to_json's.
  */
 import { inflateRawSync } from 'node:zlib';
 
@@ -180,10 +180,21 @@ function firstSheet(workbookXml, relsXml) {
   if (name === undefined || id === undefined) return undefined;
   let target;
   let sharedTarget;
-  for (const match of relsXml.matchAll(/<Relationship\s[^>]*>/g)) {
-    const relation = match[0];
+  // Each <Relationship …> tag by indexOf: a pattern like /<Relationship\s[^>]*>/g runs to the end of the
+  // part from every unclosed tag, quadratic (a few kB of ZIP held the worker until its timeout).
+  for (let cursor = 0; ; ) {
+    const at = relsXml.indexOf('<Relationship', cursor);
+    if (at < 0) break;
+    if (!/\s/.test(relsXml[at + 13] ?? '')) {
+      cursor = at + 13; // <Relationships> or another name
+      continue;
+    }
+    const tagEnd = relsXml.indexOf('>', at);
+    if (tagEnd < 0) break;
+    const relation = relsXml.slice(at, tagEnd + 1);
     if (attribute(relation, 'Id') === id) target = attribute(relation, 'Target');
     if ((attribute(relation, 'Type') ?? '').endsWith('/sharedStrings')) sharedTarget = attribute(relation, 'Target');
+    cursor = tagEnd + 1;
   }
   const resolve = (path) => (path === undefined || path.includes('..') ? undefined : path.startsWith('/') ? path.slice(1) : `xl/${path}`);
   const sheetPath = resolve(target);
@@ -353,7 +364,7 @@ export function readPlainXlsx(bytes, { sheetRows, maxPartBytes }) {
   }
 
   if (!ref && guess.e.c >= guess.s.c && guess.e.r >= guess.s.r) ref = { s: { ...guess.s }, e: { ...guess.e } };
-  if (!ref) return { sheetName: sheet.name, ref: undefined, fullref: undefined, table: [] };
+  if (!ref) return { sheetName: sheet.name, ref: undefined, fullref: undefined, table: () => [] };
   let fullref = ref;
   if (sheetRows > 0 && sheetRows <= ref.e.r) {
     const clipped = { s: { ...ref.s }, e: { ...ref.e } };
@@ -365,12 +376,18 @@ export function readPlainXlsx(bytes, { sheetRows, maxPartBytes }) {
     ref = clipped;
   }
   // sheet_to_json(header: 1, raw, defval: null, blankrows): every row of the range, a missing row as [].
-  const table = [];
-  for (let r = ref.s.r; r <= ref.e.r; r += 1) {
-    const cells = rows[r];
-    const row = [];
-    if (cells) for (let c = ref.s.c; c <= ref.e.c; c += 1) row.push(cells[c] === undefined ? null : cells[c]);
-    table.push(row);
-  }
+  // Built on demand, after the worker has checked the range: a declared <dimension ref="A1:XFD50000">
+  // over a narrow list would otherwise fill rows × 16,384 cells before being refused.
+  const range = ref;
+  const table = () => {
+    const table = [];
+    for (let r = range.s.r; r <= range.e.r; r += 1) {
+      const cells = rows[r];
+      const row = [];
+      if (cells) for (let c = range.s.c; c <= range.e.c; c += 1) row.push(cells[c] === undefined ? null : cells[c]);
+      table.push(row);
+    }
+    return table;
+  };
   return { sheetName: sheet.name, ref, fullref, table };
 }

@@ -37,7 +37,11 @@ function viaXlsx(bytes: Buffer, sheetRows: number) {
   };
 }
 
-const fast = (bytes: Buffer, sheetRows: number) => readPlainXlsx(new Uint8Array(bytes), { sheetRows, maxPartBytes: MAX_PART });
+/** The fast reading, its table laid out (the worker asks for it only once the range has passed its checks). */
+function fast(bytes: Buffer, sheetRows: number) {
+  const read = readPlainXlsx(new Uint8Array(bytes), { sheetRows, maxPartBytes: MAX_PART });
+  return read && { ...read, table: read.table() };
+}
 
 function written(rows: unknown[][], options: XLSX.WritingOptions = {}, change?: (sheet: XLSX.WorkSheet) => void): Buffer {
   const book = XLSX.utils.book_new();
@@ -91,12 +95,12 @@ function zip(parts: Record<string, string>): Buffer {
 
 const MAIN = 'http://schemas.openxmlformats.org/spreadsheetml/2006/main';
 const RELATIONSHIPS = 'http://schemas.openxmlformats.org/officeDocument/2006/relationships';
-function handWritten(sheetData: string, dimension = '<dimension ref="A1:D6"/>', sharedStrings = SHARED_STRINGS): Buffer {
+function handWritten(sheetData: string, dimension = '<dimension ref="A1:D6"/>', sharedStrings = SHARED_STRINGS, moreRelationships = ''): Buffer {
   return zip({
     '[Content_Types].xml': `<?xml version="1.0" encoding="UTF-8"?><Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types"><Default Extension="rels" ContentType="application/vnd.openxmlformats-package.relationships+xml"/><Default Extension="xml" ContentType="application/xml"/><Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/><Override PartName="/xl/worksheets/sheet1.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.worksheet+xml"/><Override PartName="/xl/sharedStrings.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sharedStrings+xml"/></Types>`,
     '_rels/.rels': `<?xml version="1.0" encoding="UTF-8"?><Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships"><Relationship Id="rId1" Type="${RELATIONSHIPS}/officeDocument" Target="xl/workbook.xml"/></Relationships>`,
     'xl/workbook.xml': `<?xml version="1.0" encoding="UTF-8"?><workbook xmlns="${MAIN}" xmlns:r="${RELATIONSHIPS}"><sheets><sheet name="Motors &amp; more" sheetId="1" r:id="rId1"/></sheets></workbook>`,
-    'xl/_rels/workbook.xml.rels': `<?xml version="1.0" encoding="UTF-8"?><Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships"><Relationship Id="rId1" Type="${RELATIONSHIPS}/worksheet" Target="worksheets/sheet1.xml"/><Relationship Id="rId2" Type="${RELATIONSHIPS}/sharedStrings" Target="/xl/sharedStrings.xml"/></Relationships>`,
+    'xl/_rels/workbook.xml.rels': `<?xml version="1.0" encoding="UTF-8"?><Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships"><Relationship Id="rId1" Type="${RELATIONSHIPS}/worksheet" Target="worksheets/sheet1.xml"/><Relationship Id="rId2" Type="${RELATIONSHIPS}/sharedStrings" Target="/xl/sharedStrings.xml"/>${moreRelationships}</Relationships>`,
     'xl/worksheets/sheet1.xml': `<?xml version="1.0" encoding="UTF-8"?><worksheet xmlns="${MAIN}">${dimension}<sheetData>${sheetData}</sheetData></worksheet>`,
     'xl/sharedStrings.xml': sharedStrings,
   });
@@ -164,6 +168,18 @@ describe('the fast .xlsx reader reads exactly what xlsx reads', () => {
   it('refuses to inflate a part beyond its limit, whatever the archive declares', () => {
     const bytes = handWritten(`<row r="1"><c r="A1" t="inlineStr"><is><t>${'x'.repeat(200_000)}</t></is></c></row>`, '');
     expect(() => readPlainXlsx(new Uint8Array(bytes), { sheetRows: 100, maxPartBytes: 100_000 })).toThrow(RangeError);
+  });
+
+  it('answers the range of a declared 16,384-column sheet without laying out its cells, so the worker can refuse it', () => {
+    const rows = Array.from({ length: 20_000 }, (_, index) => `<row r="${index + 1}"><c r="A${index + 1}"><v>${index}</v></c></row>`).join('');
+    const read = readPlainXlsx(new Uint8Array(handWritten(rows, '<dimension ref="A1:XFD20000"/>')), { sheetRows: 100_101, maxPartBytes: MAX_PART });
+    expect(read?.ref).toEqual({ s: { r: 0, c: 0 }, e: { r: 19_999, c: 16_383 } });
+    expect(typeof read?.table).toBe('function');
+  });
+
+  it('scans 200,000 unclosed relationship tags in linear time', () => {
+    const bytes = handWritten(CELLS, undefined, undefined, '<Relationships><Relationship\n'.repeat(200_000));
+    expect(fast(bytes, 100)).toEqual(fast(handWritten(CELLS), 100));
   });
 
   it('reads 50,000 rows without references followed by 50,000 empty rows, and a 20,000-run string', () => {
