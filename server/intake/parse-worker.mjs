@@ -15,34 +15,10 @@
  * Out: { ok: true, sheetName, rows: [[rowNumber, cells[]], ...], sheetRows } or { ok: false, code, message }.
  */
 import { parentPort, workerData } from 'node:worker_threads';
-import { readPlainXlsx } from './xlsx-fast.mjs';
+import { readPlainXlsx, xlsxReadOptions, zipDirectory } from './xlsx-fast.mjs';
 
 /** xlsx, loaded only when a file needs it (loading it takes 0.4 s; a plain .xlsx does not). */
 let XLSX;
-
-/** Declared uncompressed sizes of a ZIP's entries, from its central directory (no inflating). */
-function zipEntrySizes(bytes) {
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const minimum = Math.max(0, bytes.length - 65557);
-  for (let offset = bytes.length - 22; offset >= minimum; offset -= 1) {
-    if (view.getUint32(offset, true) !== 0x06054b50) continue;
-    const count = view.getUint16(offset + 10, true);
-    let cursor = view.getUint32(offset + 16, true);
-    const entries = [];
-    for (let index = 0; index < count && cursor + 46 <= bytes.length; index += 1) {
-      if (view.getUint32(cursor, true) !== 0x02014b50) break;
-      const size = view.getUint32(cursor + 24, true);
-      const nameLength = view.getUint16(cursor + 28, true);
-      const extraLength = view.getUint16(cursor + 30, true);
-      const commentLength = view.getUint16(cursor + 32, true);
-      const name = new TextDecoder().decode(bytes.subarray(cursor + 46, cursor + 46 + nameLength));
-      entries.push({ name, size });
-      cursor += 46 + nameLength + extraLength + commentLength;
-    }
-    return entries;
-  }
-  return undefined;
-}
 
 function refuse(code, message) {
   parentPort.postMessage({ ok: false, code, message });
@@ -53,21 +29,7 @@ async function readWithXlsx(bytes, sheetRows) {
   XLSX ??= await import('xlsx');
   let workbook;
   try {
-    workbook = XLSX.read(bytes, {
-      type: 'buffer',
-      dense: true,
-      raw: true,
-      cellFormula: false,
-      cellHTML: false,
-      cellText: false,
-      cellStyles: false,
-      cellDates: false,
-      bookVBA: false,
-      sheetStubs: false,
-      sheets: 0,
-      // Read at most this many rows: a longer sheet is refused without holding it all.
-      sheetRows,
-    });
+    workbook = XLSX.read(bytes, xlsxReadOptions(sheetRows));
   } catch (error) {
     return { refused: { code: 'unreadable', message: `The file cannot be read as a spreadsheet (${String(error && error.message ? error.message : error).slice(0, 200)}).` } };
   }
@@ -85,7 +47,7 @@ async function readWithXlsx(bytes, sheetRows) {
 async function run() {
   const { bytes, limits, kind } = workerData;
   if (kind === 'zip') {
-    const entries = zipEntrySizes(bytes);
+    const entries = zipDirectory(bytes)?.entries;
     if (!entries) return refuse('unreadable', 'The file looks like an .xlsx (ZIP) but its directory cannot be read.');
     const total = entries.reduce((sum, entry) => sum + entry.size, 0);
     const largest = entries.reduce((big, entry) => (entry.size > big.size ? entry : big), { name: '', size: 0 });

@@ -16,31 +16,65 @@ import { inflateRawSync } from 'node:zlib';
 
 const decoder = new TextDecoder('utf-8', { fatal: true });
 
-/** Central-directory entries of a ZIP: name → { method, flags, compressedSize, size, offset }. */
-function zipEntries(bytes) {
+/**
+ * The xlsx reading this reader reproduces: the parse worker reads with these options when it falls
+ * back to xlsx, and the tests compare the two readings with them.
+ */
+export function xlsxReadOptions(sheetRows) {
+  return {
+    type: 'buffer',
+    dense: true,
+    raw: true,
+    cellFormula: false,
+    cellHTML: false,
+    cellText: false,
+    cellStyles: false,
+    cellDates: false,
+    bookVBA: false,
+    sheetStubs: false,
+    sheets: 0,
+    // Read at most this many rows: a longer sheet is refused without holding it all.
+    sheetRows,
+  };
+}
+
+/**
+ * A ZIP's central directory, read without inflating anything: { entries: [{ name, flags, method,
+ * compressedSize, size, offset }], complete }, or undefined when there is no end-of-directory record.
+ * `complete` is false when the directory stops short of its declared count (a damaged or hostile
+ * archive): the entries read so far are still given, for the worker's size checks.
+ */
+export function zipDirectory(bytes) {
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const minimum = Math.max(0, bytes.length - 65557);
   for (let offset = bytes.length - 22; offset >= minimum; offset -= 1) {
     if (view.getUint32(offset, true) !== 0x06054b50) continue;
     const count = view.getUint16(offset + 10, true);
     let cursor = view.getUint32(offset + 16, true);
-    const entries = new Map();
+    const entries = [];
     for (let index = 0; index < count; index += 1) {
-      if (cursor + 46 > bytes.length || view.getUint32(cursor, true) !== 0x02014b50) return undefined;
+      if (cursor + 46 > bytes.length || view.getUint32(cursor, true) !== 0x02014b50) return { entries, complete: false };
       const nameLength = view.getUint16(cursor + 28, true);
-      const entry = {
+      entries.push({
+        name: new TextDecoder().decode(bytes.subarray(cursor + 46, cursor + 46 + nameLength)),
         flags: view.getUint16(cursor + 8, true),
         method: view.getUint16(cursor + 10, true),
         compressedSize: view.getUint32(cursor + 20, true),
         size: view.getUint32(cursor + 24, true),
         offset: view.getUint32(cursor + 42, true),
-      };
-      entries.set(new TextDecoder().decode(bytes.subarray(cursor + 46, cursor + 46 + nameLength)), entry);
+      });
       cursor += 46 + nameLength + view.getUint16(cursor + 30, true) + view.getUint16(cursor + 32, true);
     }
-    return entries;
+    return { entries, complete: true };
   }
   return undefined;
+}
+
+/** Central-directory entries of a complete ZIP by name, or undefined. */
+function zipEntries(bytes) {
+  const directory = zipDirectory(bytes);
+  if (!directory || !directory.complete) return undefined;
+  return new Map(directory.entries.map((entry) => [entry.name, entry]));
 }
 
 /** A part's text, inflated with an output limit; undefined when it is missing or unusual. */

@@ -7,25 +7,12 @@
 import { crc32, deflateRawSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
-import { readPlainXlsx } from '../../../server/intake/xlsx-fast.mjs';
+import { readPlainXlsx, xlsxReadOptions } from '../../../server/intake/xlsx-fast.mjs';
 
 const MAX_PART = 100 * 1024 * 1024;
 
 function viaXlsx(bytes: Buffer, sheetRows: number) {
-  const book = XLSX.read(bytes, {
-    type: 'buffer',
-    dense: true,
-    raw: true,
-    cellFormula: false,
-    cellHTML: false,
-    cellText: false,
-    cellStyles: false,
-    cellDates: false,
-    bookVBA: false,
-    sheetStubs: false,
-    sheets: 0,
-    sheetRows,
-  });
+  const book = XLSX.read(bytes, xlsxReadOptions(sheetRows) as XLSX.ParsingOptions);
   const sheetName = book.SheetNames[0] as string;
   const sheet = book.Sheets[sheetName] as XLSX.WorkSheet;
   if (!sheet['!ref']) return { sheetName, ref: undefined, fullref: undefined, table: [] };
