@@ -35,7 +35,7 @@ import {
 } from '../shared/intake.js';
 import { buildMapping, findHeaderRow, headerKey, headerNames } from './mapping.js';
 import { parseSpreadsheet } from './parse.js';
-import { CHUNK_ROWS, chunked, commitStatements, insertAudits, insertRows, overwriteMotors } from './store.js';
+import { chunked, commitStatements, insertAudits, insertRows, overwriteMotors } from './store.js';
 import { startValidation, type ParsedRow, type ValidatedRow, type Validation } from './validate.js';
 
 /**
@@ -448,7 +448,7 @@ export async function undoImport(tenant: Tenant, id: number): Promise<{ removed:
     const existingCreated = createdIds.filter((motorId) => current.has(motorId));
     if (existingCreated.length > 0) await Motor.destroy({ where: { id: { [Op.in]: existingCreated }, organizationId: tenant.organizationId }, transaction });
     const restores = rows.filter((row) => row.action === 'update').map((row) => row.previousValues as Record<string, unknown>);
-    for (let start = 0; start < restores.length; start += CHUNK_ROWS) await overwriteMotors(restores.slice(start, start + CHUNK_ROWS), transaction, 'value');
+    for (const chunk of chunked(restores)) await overwriteMotors(chunk, transaction);
     await insertAudits(
       tenant.organizationId,
       tenant.user.id,

@@ -8,10 +8,10 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { database } from '../lib/database.js';
 import type { ValidatedRow } from './validate.js';
 
-export const CHUNK_ROWS = 2000;
+const CHUNK_ROWS = 2000;
 
 /** Motor fields written by an import: field → [column, recordset type, cast]. */
-export const MOTOR_COLUMNS: ReadonlyArray<readonly [field: string, column: string, type: string, cast: string]> = [
+const MOTOR_COLUMNS: ReadonlyArray<readonly [field: string, column: string, type: string, cast: string]> = [
   ['tag', 'tag', 'text', ''],
   ['description', 'description', 'text', ''],
   ['area', 'area', 'text', ''],
@@ -82,13 +82,12 @@ export function* chunked<T>(rows: T[], size = CHUNK_ROWS): Generator<T[]> {
   for (let start = 0; start < rows.length; start += size) yield rows.slice(start, start + size);
 }
 
-/** Writes full motor values over existing motors (by `id`), bumping their version. */
-export async function overwriteMotors(motors: Array<Record<string, unknown>>, transaction: Transaction, importBatchIdFrom: 'value' | number): Promise<void> {
+/** Writes full motor values (as the commit kept them, with their `importBatchId`) back over motors by `id`, bumping their version: undo. */
+export async function overwriteMotors(motors: Array<Record<string, unknown>>, transaction: Transaction): Promise<void> {
   if (motors.length === 0) return;
   const assignments = MOTOR_COLUMNS.map(([field, column, , cast]) => `${column} = v."${field}"${cast}`).join(', ');
-  const batchAssignment = importBatchIdFrom === 'value' ? 'v."importBatchId"' : String(Number(importBatchIdFrom));
   await database().query(
-    `UPDATE motors AS m SET ${assignments}, import_batch_id = ${batchAssignment}, version = m.version + 1, updated_at = now()
+    `UPDATE motors AS m SET ${assignments}, import_batch_id = v."importBatchId", version = m.version + 1, updated_at = now()
      FROM jsonb_to_recordset($1::jsonb) AS v(id int, "importBatchId" int, ${recordsetColumns})
      WHERE m.id = v.id`,
     { bind: [JSON.stringify(motors)], transaction, type: QueryTypes.UPDATE },
