@@ -30,11 +30,11 @@ import { DEFAULT_PUMP_STATIC_HEAD_FRACTION, flowOperatingPoint, speedControlAppl
 import { powerFactorFromNameplate } from '../electrical/line-current.js';
 import {
   capitalRecoveryFactor,
-  discountedPaybackYears,
+  checkSavingsCashFlows,
+  discountedPaybackOfEscalatingSavings,
   escalatingSeriesFactor,
-  fillSavingsCashFlows,
-  internalRateOfReturn,
-  netPresentValue,
+  internalRateOfReturnOfEscalatingSavings,
+  netPresentValueOfEscalatingSavings,
   presentValueWithFactor,
   simplePaybackYears,
   type EscalatingSeriesFactor,
@@ -849,8 +849,8 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
     const savingsCost = baselineCost - annualCost;
     const capex = optionCapex(option, book, ratedPowerKw, hasDriveToday);
     const lifeYears = option.speedControl ? Math.min(lives[option.family], lives.vsd) : lives[option.family];
-    // A reused buffer: every figure below reads it before the next option overwrites it.
-    const flows = fillSavingsCashFlows(capex, savingsCost, lifeYears, escalation);
+    // The savings series CF_t = S·(1+g)^(t−1) is used in closed form or summed on the fly, never built.
+    checkSavingsCashFlows(capex, lifeYears, escalation);
     const isBaseline = slot === 0;
     const life = lifeFactors(lifeYears, discountRate, escalation);
     const lcc = capex + presentValueWithFactor(annualCost, life.series); // lifeCycleCost, with the power computed once per life
@@ -867,10 +867,10 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
     columns.co2SavedKg[row] = round1(savingsKwh * co2Factor);
     columns.capex[row] = roundMoney(capex);
     columns.simplePaybackYears[row] = isBaseline ? Number.NaN : round2OrNaN(simplePaybackYears(capex, savingsCost));
-    columns.discountedPaybackYears[row] = isBaseline ? Number.NaN : round2OrNaN(discountedPaybackYears(discountRate, flows));
-    const npv = roundMoney(netPresentValue(discountRate, flows));
+    columns.discountedPaybackYears[row] = isBaseline ? Number.NaN : round2OrNaN(discountedPaybackOfEscalatingSavings(discountRate, capex, savingsCost, lifeYears, escalation));
+    const npv = roundMoney(netPresentValueOfEscalatingSavings(capex, savingsCost, life.series, escalation));
     columns.npv[row] = npv;
-    columns.irr[row] = isBaseline || !(savingsCost > 0) ? Number.NaN : round4OrNaN(internalRateOfReturn(flows));
+    columns.irr[row] = isBaseline || !(savingsCost > 0) ? Number.NaN : round4OrNaN(internalRateOfReturnOfEscalatingSavings(capex, savingsCost, lifeYears, escalation));
     columns.lifeCycleCost[row] = roundMoney(lcc);
     columns.equivalentAnnualCost[row] = roundMoney(lcc * life.capitalRecovery);
     columns.lineCurrentA[row] = round2(peakCurrent);

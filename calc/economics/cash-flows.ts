@@ -43,6 +43,19 @@ export function savingsCashFlows(capex: number, annualSavings: number, years: nu
   return flows;
 }
 
+/**
+ * The checks of `savingsCashFlows` on its inputs, for the functions below that use the series
+ * without building it.
+ *
+ * @param capex [currency], ≥ 0; @param years N [a], integer 1–100; @param escalation g [-], −0.5 to 1
+ * @throws CalcInputError naming "capex", "years" or "escalation".
+ */
+export function checkSavingsCashFlows(capex: number, years: number, escalation: number): void {
+  requireNonNegative('capex', capex);
+  if (!Number.isInteger(years) || years < 1 || years > 100) throw new CalcInputError('years', 'must be a whole number from 1 to 100');
+  requireInRange('escalation', escalation, -0.5, 1);
+}
+
 /** Scratch buffers by length for `fillSavingsCashFlows` (module scratch, reused, never returned to a caller's result). */
 const scratchFlows: Float64Array[] = [];
 
@@ -55,9 +68,7 @@ const scratchFlows: Float64Array[] = [];
  * @returns a Float64Array of length N + 1 holding [−capex, S, S·(1+g), …] [currency], valid until the next call.
  */
 export function fillSavingsCashFlows(capex: number, annualSavings: number, years: number, escalation: number): Float64Array {
-  requireNonNegative('capex', capex);
-  if (!Number.isInteger(years) || years < 1 || years > 100) throw new CalcInputError('years', 'must be a whole number from 1 to 100');
-  requireInRange('escalation', escalation, -0.5, 1);
+  checkSavingsCashFlows(capex, years, escalation);
   let flows = scratchFlows[years];
   if (flows === undefined) {
     flows = new Float64Array(years + 1);
@@ -171,6 +182,96 @@ function bracketedRate(cashFlows: ArrayLike<number>, tolerance: number): number 
     rate = next;
   }
   throw new CalcInputError('cashFlows', `IRR did not converge in ${IRR_MAX_ITERATIONS} iterations`);
+}
+
+/**
+ * Rates closer than this [-] make the closed forms below ill-conditioned (1 − x^N cancels), so they
+ * fall back to the year-by-year sums; so do present values at or above ESCALATING_CLOSED_FORM_MAX_AMOUNT.
+ */
+const CLOSED_FORM_MIN_RATE_GAP = 1e-6;
+/** Amount [currency] from which NPV is summed year by year (its cents stay those of the sum). */
+export const ESCALATING_CLOSED_FORM_MAX_AMOUNT = 1e7;
+
+/**
+ * Net present value of `savingsCashFlows(capex, annualSavings, N, g)` in closed form (geometric-
+ * gradient series, [1] Ch. 4), with the series factor shared by every amount of the same life.
+ *
+ * @param capex C [currency], ≥ 0; @param annualSavings S, first year [currency/a]
+ * @param factor `escalatingSeriesFactor(N, i, g)`; @param escalation g [-] (the factor's)
+ * @returns NPV = −C + S·(1 − ((1+g)/(1+i))^N)/(i − g), or −C + N·S/(1+i) when i = g [currency];
+ *   equal to `netPresentValue(i, savingsCashFlows(...))` to about 1e-14 of the amounts. When i and g
+ *   are closer than 1e-6 (but not equal) or the present value reaches 1e7, the year-by-year sum is
+ *   returned instead, so the result keeps the sum's cents.
+ */
+export function netPresentValueOfEscalatingSavings(capex: number, annualSavings: number, factor: EscalatingSeriesFactor, escalation: number): number {
+  if (!(factor.rate > -1)) throw new CalcInputError('discountRate', 'must be above -100 %');
+  if (factor.equalRates || Math.abs(factor.rateGap) >= CLOSED_FORM_MIN_RATE_GAP) {
+    const present = presentValueWithFactor(annualSavings, factor);
+    if (Math.abs(present) < ESCALATING_CLOSED_FORM_MAX_AMOUNT) return -capex + present;
+  }
+  return netPresentValue(factor.rate, fillSavingsCashFlows(capex, annualSavings, factor.years, escalation));
+}
+
+/**
+ * Discounted payback of `savingsCashFlows(capex, annualSavings, N, g)` without building the series:
+ * the same operations, in the same order, as `discountedPaybackYears(i, savingsCashFlows(...))`, so
+ * the result is identical; it stops in the year the investment is paid back.
+ *
+ * @param rate i [-]; @param capex C [currency], ≥ 0; @param annualSavings S [currency/a]
+ * @param years N [a]; @param escalation g [-]
+ * @returns years [a], interpolated linearly within the year; 0 when C = 0; null if not within N years.
+ *   [1] Ch. 5.
+ */
+export function discountedPaybackOfEscalatingSavings(rate: number, capex: number, annualSavings: number, years: number, escalation: number): number | null {
+  const factor = 1 / (1 + rate);
+  let cumulative = -capex;
+  if (cumulative >= 0) return 0;
+  let discount = 1;
+  let amount = annualSavings;
+  for (let t = 1; t <= years; t += 1) {
+    discount *= factor;
+    const present = amount * discount;
+    if (cumulative + present >= 0 && present > 0) return t - 1 + -cumulative / present;
+    cumulative += present;
+    amount *= 1 + escalation;
+  }
+  return null;
+}
+
+/**
+ * Internal rate of return of `savingsCashFlows(capex, annualSavings, N, g)` by Newton steps on the
+ * closed-form NPV: f(r) = −C + S·G(r), G = (1 − x^N)/(r − g), x = (1+g)/(1+r),
+ * f'(r) = S·(N·x^N/(1+r) − G)/(r − g) ([1] Ch. 4–5), started at the growing-perpetuity rate
+ * r₀ = S/C + g. Same stopping rules as `internalRateOfReturn` (|NPV| < 1e-12·max(1, C), or a step
+ * below 1e-15 of the rate), so the root agrees with it to about 1e-13.
+ *
+ * @param capex C [currency], ≥ 0; @param annualSavings S [currency/a]; @param years N [a]; @param escalation g [-]
+ * @returns i [-] with NPV = 0, or null when there is none (as `internalRateOfReturn`). Anything but a
+ *   conventional investment (C > 0, S > 0), a step within 1e-4 of g, below −99 % or not converging in
+ *   30 steps is handed to `internalRateOfReturn` on the built series.
+ */
+export function internalRateOfReturnOfEscalatingSavings(capex: number, annualSavings: number, years: number, escalation: number): number | null {
+  if (capex > 0 && annualSavings > 0) {
+    const tolerance = 1e-12 * Math.max(1, capex);
+    const growth = 1 + escalation;
+    let rate = Math.min(annualSavings / capex + escalation, 10);
+    for (let step = 0; step < 30; step += 1) {
+      const gap = rate - escalation;
+      if (!(Math.abs(gap) > 1e-4)) break;
+      const x = growth / (1 + rate);
+      const power = x ** years;
+      const series = (1 - power) / gap;
+      const value = annualSavings * series - capex;
+      if (Math.abs(value) < tolerance) return rate;
+      const slope = (annualSavings * ((years * power) / (1 + rate) - series)) / gap;
+      if (!(slope < 0)) break;
+      const next = rate - value / slope;
+      if (!(next > IRR_LOWER) || !Number.isFinite(next)) break;
+      if (Math.abs(next - rate) < 1e-15 * Math.max(1, Math.abs(rate))) return next;
+      rate = next;
+    }
+  }
+  return internalRateOfReturn(fillSavingsCashFlows(capex, annualSavings, years, escalation));
 }
 
 /**
