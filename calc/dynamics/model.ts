@@ -212,6 +212,8 @@ export interface BldcModelConfig {
 const TWO_PI = 2 * Math.PI;
 const ONE_THIRD = 1 / 3;
 const HALF_SQRT3 = Math.sqrt(3) / 2;
+/** Shift of each phase's back-EMF in its electrical period: a, b (−120°), c (+120°) [-]. */
+const PHASE_OFFSET = [0, -ONE_THIRD, ONE_THIRD] as const;
 /** LOAD_QUADRATIC of load.ts as a const enum member (see State). */
 const enum LoadKindIndex {
   Quadratic = 1,
@@ -237,9 +239,13 @@ export const DYNAMIC_STATE_SIZE = 6;
  * million steps per simulated second. The equations live once, in `derive`, which reads its state
  * from numeric fields and leaves its results in numeric fields: V8 does not inline a function this
  * long, and it boxes (allocates) every floating-point argument and return value of a call it does
- * not inline, while field reads and writes allocate nothing. `rk4Step` keeps the Runge–Kutta stages
- * in local variables around those calls; `evaluate` is the general entry with state and derivative
- * as vectors.
+ * not inline, while field reads and writes allocate nothing. The RK4 step (stepAhead) keeps its
+ * stages in local variables around those calls and its start and end in fields, so the simulation
+ * can chain steps between switching events without copying vectors (startFrom, stepAhead,
+ * acceptStep, writeStart); `rk4Step` is the same step with vectors in and out. When two legs conduct
+ * and the third floats at zero current on a stiff bus (most of a six-step period), the step runs the
+ * two-leg equations, which give the same numbers with a third less work. `evaluate` is the general
+ * entry with state and derivative as vectors.
  */
 export class BldcModel {
   /** Time of the next evaluation [s] (read by the rectifier only); the start of the step for rk4Step. */
@@ -273,12 +279,64 @@ export class BldcModel {
   private va = 0;
   private vb = 0;
   private vc = 0;
-  private torque = 0;
+  /** Electromagnetic torque at the last evaluation [N·m]. */
+  torque = 0;
   private loadTorqueNm = 0;
   private rectifierCurrent = 0;
   /** Rectifier output voltage [V] at sourceTime [s] (see derive). */
   private sourceV = 0;
   private sourceTime = Number.NaN;
+
+  // The step's start (startFrom, acceptStep): state and derivative there [S_ quantities].
+  private startA = 0;
+  private startB = 0;
+  private startC = 0;
+  private startSpeed = 0;
+  private startAngle = 0;
+  private startVdc = 0;
+  private startIn = 0;
+  private startCopper = 0;
+  private startLoad = 0;
+  private startFriction = 0;
+  private slopeA = 0;
+  private slopeB = 0;
+  private slopeC = 0;
+  private slopeSpeed = 0;
+  private slopeAngle = 0;
+  private slopeVdc = 0;
+  private slopeIn = 0;
+  private slopeCopper = 0;
+  private slopeLoad = 0;
+  private slopeFriction = 0;
+  // The step's end (stepAhead); read by the simulation between events.
+  endA = 0;
+  endB = 0;
+  endC = 0;
+  endSpeed = 0;
+  endAngle = 0;
+  endVdc = 0;
+  endIn = 0;
+  endCopper = 0;
+  endLoad = 0;
+  endFriction = 0;
+  /** Terminal voltage of the floating leg at the end of stepAhead [V] (when exactly one leg floats). */
+  openTerminalV = 0;
+  /** True while startFrom found the two-leg case; then openLeg is the floating leg. */
+  twoLegs = false;
+  openLeg = 0;
+  private offsetP = 0;
+  private offsetQ = 0;
+  private offsetOpen = 0;
+  /** Terminal voltages of the two closed legs, fixed on a stiff bus [V]. */
+  private voltageP = 0;
+  private voltageQ = 0;
+  /** Position of phase a in its electrical period at the last deriveTwoLegs [-]. */
+  private phaseA = 0;
+  /** Two-leg state and derivative: currents of the closed legs p < q [A] and their slopes [A/s]. */
+  private currentP = 0;
+  private currentQ = 0;
+  private slopeCurrentP = 0;
+  private slopeCurrentQ = 0;
 
   private readonly resistance: number;
   private readonly inverseInductance: number;
@@ -341,21 +399,98 @@ export class BldcModel {
    * @param out state at the end @param kOut derivative at the end @param aux auxiliary outputs at the end
    */
   rk4Step(x: Float64Array, k1: Float64Array, out: Float64Array, kOut: Float64Array, aux: Float64Array): void {
+    this.startFrom(x, k1);
+    this.stepAhead(true);
+    out[State.CurrentA] = this.endA;
+    out[State.CurrentB] = this.endB;
+    out[State.CurrentC] = this.endC;
+    out[State.Speed] = this.endSpeed;
+    out[State.Angle] = this.endAngle;
+    out[State.DcBus] = this.endVdc;
+    out[State.EnergyIn] = this.endIn;
+    out[State.EnergyCopper] = this.endCopper;
+    out[State.EnergyLoad] = this.endLoad;
+    out[State.EnergyFriction] = this.endFriction;
+    this.writeDerivative(kOut);
+    this.writeAux(aux);
+  }
+
+  /**
+   * Takes a committed state and its derivative as the start of the next step. With it, a caller can
+   * chain steps in the fields alone (startFrom, then stepAhead and acceptStep per step, reading the
+   * end fields, then writeStart), which is how the simulation runs between switching events.
+   * Chooses the two-leg equations when they hold for the whole step: a stiff bus, exactly two legs
+   * closed and the third floating with exactly zero current (it then keeps zero current, [1] Table I).
+   * @param x state [S_ indices] @param k1 f(t, x)
+   */
+  startFrom(x: Float64Array, k1: Float64Array): void {
+    this.startA = x[State.CurrentA] as number;
+    this.startB = x[State.CurrentB] as number;
+    this.startC = x[State.CurrentC] as number;
+    this.startSpeed = x[State.Speed] as number;
+    this.startAngle = x[State.Angle] as number;
+    this.startVdc = x[State.DcBus] as number;
+    this.startIn = x[State.EnergyIn] as number;
+    this.startCopper = x[State.EnergyCopper] as number;
+    this.startLoad = x[State.EnergyLoad] as number;
+    this.startFriction = x[State.EnergyFriction] as number;
+    this.slopeA = k1[State.CurrentA] as number;
+    this.slopeB = k1[State.CurrentB] as number;
+    this.slopeC = k1[State.CurrentC] as number;
+    this.slopeSpeed = k1[State.Speed] as number;
+    this.slopeAngle = k1[State.Angle] as number;
+    this.slopeVdc = k1[State.DcBus] as number;
+    this.slopeIn = k1[State.EnergyIn] as number;
+    this.slopeCopper = k1[State.EnergyCopper] as number;
+    this.slopeLoad = k1[State.EnergyLoad] as number;
+    this.slopeFriction = k1[State.EnergyFriction] as number;
+    this.twoLegs = false;
+    const closed = this.closed;
+    const ca = closed[0] as number;
+    const cb = closed[1] as number;
+    const cc = closed[2] as number;
+    if (this.rectifier !== null || ca + cb + cc !== 2) return;
+    const open = ca === 0 ? 0 : cb === 0 ? 1 : 2;
+    if (x[open] !== 0) return;
+    // The closed legs p < q in phase order, so sums keep the order of derive() and the results its bits.
+    const p = open === 0 ? 1 : 0;
+    const q = open === 2 ? 1 : 2;
+    this.openLeg = open;
+    this.offsetP = PHASE_OFFSET[p] as number;
+    this.offsetQ = PHASE_OFFSET[q] as number;
+    this.offsetOpen = PHASE_OFFSET[open] as number;
+    this.voltageP = (this.legFactor[p] as number) * this.startVdc;
+    this.voltageQ = (this.legFactor[q] as number) * this.startVdc;
+    this.twoLegs = true;
+  }
+
+  /**
+   * The RK4 step of rk4Step from the start fields over this.stepS, from this.time: the end state
+   * into the end fields, the derivative there into the derivative fields, this.time to t + h.
+   * @param fullOutputs true: evaluate the end with derive(), so writeDerivative and writeAux may
+   *   follow; false (two-leg equations only): the end leaves its derivative, torque and
+   *   openTerminalV, which is what acceptStep and the simulation's event checks read
+   */
+  stepAhead(fullOutputs: boolean): void {
+    if (this.twoLegs) {
+      this.stepTwoLegs(fullOutputs);
+      return;
+    }
     const t = this.time;
     const h = this.stepS;
     const half = 0.5 * h;
-    const x0 = x[State.CurrentA] as number;
-    const x1 = x[State.CurrentB] as number;
-    const x2 = x[State.CurrentC] as number;
-    const x3 = x[State.Speed] as number;
-    const x4 = x[State.Angle] as number;
-    const x5 = x[State.DcBus] as number;
-    const a0 = k1[State.CurrentA] as number;
-    const a1 = k1[State.CurrentB] as number;
-    const a2 = k1[State.CurrentC] as number;
-    const a3 = k1[State.Speed] as number;
-    const a4 = k1[State.Angle] as number;
-    const a5 = k1[State.DcBus] as number;
+    const x0 = this.startA;
+    const x1 = this.startB;
+    const x2 = this.startC;
+    const x3 = this.startSpeed;
+    const x4 = this.startAngle;
+    const x5 = this.startVdc;
+    const a0 = this.slopeA;
+    const a1 = this.slopeB;
+    const a2 = this.slopeC;
+    const a3 = this.slopeSpeed;
+    const a4 = this.slopeAngle;
+    const a5 = this.slopeVdc;
 
     this.time = t + half;
     this.ia = x0 + half * a0;
@@ -404,26 +539,222 @@ export class BldcModel {
     this.derive();
 
     const sixth = h / 6;
-    this.ia = x0 + sixth * (a0 + 2 * b0 + 2 * c0 + this.dia);
-    this.ib = x1 + sixth * (a1 + 2 * b1 + 2 * c1 + this.dib);
-    this.ic = x2 + sixth * (a2 + 2 * b2 + 2 * c2 + this.dic);
-    const speedEnd = x3 + sixth * (a3 + 2 * b3 + 2 * c3 + this.dSpeed);
-    this.angle = x4 + sixth * (a4 + 2 * b4 + 2 * c4 + this.speed);
-    this.vdc = x5 + sixth * (a5 + 2 * b5 + 2 * c5 + this.dVdc);
-    out[State.EnergyIn] = (x[State.EnergyIn] as number) + sixth * ((k1[State.EnergyIn] as number) + 2 * b6 + 2 * c6 + this.inputPower);
-    out[State.EnergyCopper] = (x[State.EnergyCopper] as number) + sixth * ((k1[State.EnergyCopper] as number) + 2 * b7 + 2 * c7 + this.copperLoss);
-    out[State.EnergyLoad] = (x[State.EnergyLoad] as number) + sixth * ((k1[State.EnergyLoad] as number) + 2 * b8 + 2 * c8 + this.loadPower);
-    out[State.EnergyFriction] = (x[State.EnergyFriction] as number) + sixth * ((k1[State.EnergyFriction] as number) + 2 * b9 + 2 * c9 + this.frictionLoss);
-    this.speed = speedEnd;
-    out[State.CurrentA] = this.ia;
-    out[State.CurrentB] = this.ib;
-    out[State.CurrentC] = this.ic;
-    out[State.Speed] = speedEnd;
-    out[State.Angle] = this.angle;
-    out[State.DcBus] = this.vdc;
+    const endA = x0 + sixth * (a0 + 2 * b0 + 2 * c0 + this.dia);
+    const endB = x1 + sixth * (a1 + 2 * b1 + 2 * c1 + this.dib);
+    const endC = x2 + sixth * (a2 + 2 * b2 + 2 * c2 + this.dic);
+    const endSpeed = x3 + sixth * (a3 + 2 * b3 + 2 * c3 + this.dSpeed);
+    const endAngle = x4 + sixth * (a4 + 2 * b4 + 2 * c4 + this.speed);
+    const endVdc = x5 + sixth * (a5 + 2 * b5 + 2 * c5 + this.dVdc);
+    this.endIn = this.startIn + sixth * (this.slopeIn + 2 * b6 + 2 * c6 + this.inputPower);
+    this.endCopper = this.startCopper + sixth * (this.slopeCopper + 2 * b7 + 2 * c7 + this.copperLoss);
+    this.endLoad = this.startLoad + sixth * (this.slopeLoad + 2 * b8 + 2 * c8 + this.loadPower);
+    this.endFriction = this.startFriction + sixth * (this.slopeFriction + 2 * b9 + 2 * c9 + this.frictionLoss);
+    this.endA = endA;
+    this.endB = endB;
+    this.endC = endC;
+    this.endSpeed = endSpeed;
+    this.endAngle = endAngle;
+    this.endVdc = endVdc;
+    this.ia = endA;
+    this.ib = endB;
+    this.ic = endC;
+    this.speed = endSpeed;
+    this.angle = endAngle;
+    this.vdc = endVdc;
     this.derive();
-    this.writeDerivative(kOut);
-    this.writeAux(aux);
+    // As writeAux gives it for the (first) floating leg; read only when exactly one floats.
+    const closed = this.closed;
+    this.openTerminalV = this.neutral + (closed[0] === 0 ? this.ea : closed[1] === 0 ? this.eb : this.ec);
+  }
+
+  /**
+   * stepAhead in the two-leg case: the same arithmetic on the two closed currents only (the floating
+   * one stays exactly zero, the bus voltage exactly constant), a third less work per stage. It is a
+   * copy of the general step's formulas because a shared one would carry the third current and the
+   * bus through every stage, which is what this saves.
+   */
+  private stepTwoLegs(fullOutputs: boolean): void {
+    const open = this.openLeg;
+    const t = this.time;
+    const h = this.stepS;
+    const half = 0.5 * h;
+    const xp = open === 0 ? this.startB : this.startA;
+    const xq = open === 2 ? this.startB : this.startC;
+    const ap = open === 0 ? this.slopeB : this.slopeA;
+    const aq = open === 2 ? this.slopeB : this.slopeC;
+    const x3 = this.startSpeed;
+    const x4 = this.startAngle;
+    const a3 = this.slopeSpeed;
+    const a4 = this.slopeAngle;
+
+    this.currentP = xp + half * ap;
+    this.currentQ = xq + half * aq;
+    this.speed = x3 + half * a3;
+    this.angle = x4 + half * a4;
+    this.deriveTwoLegs();
+    const bp = this.slopeCurrentP;
+    const bq = this.slopeCurrentQ;
+    const b3 = this.dSpeed;
+    const b4 = this.speed;
+    const b6 = this.inputPower;
+    const b7 = this.copperLoss;
+    const b8 = this.loadPower;
+    const b9 = this.frictionLoss;
+
+    this.currentP = xp + half * bp;
+    this.currentQ = xq + half * bq;
+    this.speed = x3 + half * b3;
+    this.angle = x4 + half * b4;
+    this.deriveTwoLegs();
+    const cp = this.slopeCurrentP;
+    const cq = this.slopeCurrentQ;
+    const c3 = this.dSpeed;
+    const c4 = this.speed;
+    const c6 = this.inputPower;
+    const c7 = this.copperLoss;
+    const c8 = this.loadPower;
+    const c9 = this.frictionLoss;
+
+    this.currentP = xp + h * cp;
+    this.currentQ = xq + h * cq;
+    this.speed = x3 + h * c3;
+    this.angle = x4 + h * c4;
+    this.deriveTwoLegs();
+
+    const sixth = h / 6;
+    const endP = xp + sixth * (ap + 2 * bp + 2 * cp + this.slopeCurrentP);
+    const endQ = xq + sixth * (aq + 2 * bq + 2 * cq + this.slopeCurrentQ);
+    const endSpeed = x3 + sixth * (a3 + 2 * b3 + 2 * c3 + this.dSpeed);
+    const endAngle = x4 + sixth * (a4 + 2 * b4 + 2 * c4 + this.speed);
+    this.endIn = this.startIn + sixth * (this.slopeIn + 2 * b6 + 2 * c6 + this.inputPower);
+    this.endCopper = this.startCopper + sixth * (this.slopeCopper + 2 * b7 + 2 * c7 + this.copperLoss);
+    this.endLoad = this.startLoad + sixth * (this.slopeLoad + 2 * b8 + 2 * c8 + this.loadPower);
+    this.endFriction = this.startFriction + sixth * (this.slopeFriction + 2 * b9 + 2 * c9 + this.frictionLoss);
+    // The floating current and the bus voltage end where they started (zero derivative).
+    const endA = open === 0 ? this.startA : endP;
+    const endB = open === 1 ? this.startB : open === 0 ? endP : endQ;
+    const endC = open === 2 ? this.startC : endQ;
+    this.endA = endA;
+    this.endB = endB;
+    this.endC = endC;
+    this.endSpeed = endSpeed;
+    this.endAngle = endAngle;
+    this.endVdc = this.startVdc;
+    this.time = t + h;
+    this.speed = endSpeed;
+    this.angle = endAngle;
+    if (fullOutputs) {
+      this.ia = endA;
+      this.ib = endB;
+      this.ic = endC;
+      this.vdc = this.startVdc;
+      this.derive();
+      return;
+    }
+    this.currentP = endP;
+    this.currentQ = endQ;
+    this.deriveTwoLegs();
+    this.dia = open === 0 ? 0 : this.slopeCurrentP;
+    this.dib = open === 1 ? 0 : open === 0 ? this.slopeCurrentP : this.slopeCurrentQ;
+    this.dic = open === 2 ? 0 : this.slopeCurrentQ;
+    this.dVdc = 0;
+    let phase = this.phaseA + this.offsetOpen;
+    if (phase < 0) phase += 1;
+    else if (phase >= 1) phase -= 1;
+    const table = this.table;
+    const shape = table === null ? this.trapezoid(phase) : tableShape(phase, table);
+    this.openTerminalV = this.neutral + this.ke * endSpeed * shape;
+  }
+
+  /** Makes the end of the last stepAhead the start of the next step. */
+  acceptStep(): void {
+    this.startA = this.endA;
+    this.startB = this.endB;
+    this.startC = this.endC;
+    this.startSpeed = this.endSpeed;
+    this.startAngle = this.endAngle;
+    this.startVdc = this.endVdc;
+    this.startIn = this.endIn;
+    this.startCopper = this.endCopper;
+    this.startLoad = this.endLoad;
+    this.startFriction = this.endFriction;
+    this.slopeA = this.dia;
+    this.slopeB = this.dib;
+    this.slopeC = this.dic;
+    this.slopeSpeed = this.dSpeed;
+    this.slopeAngle = this.endSpeed;
+    this.slopeVdc = this.dVdc;
+    this.slopeIn = this.inputPower;
+    this.slopeCopper = this.copperLoss;
+    this.slopeLoad = this.loadPower;
+    this.slopeFriction = this.frictionLoss;
+  }
+
+  /** The start state as a vector [S_ indices] (after a chain of acceptStep). */
+  writeStart(x: Float64Array): void {
+    x[State.CurrentA] = this.startA;
+    x[State.CurrentB] = this.startB;
+    x[State.CurrentC] = this.startC;
+    x[State.Speed] = this.startSpeed;
+    x[State.Angle] = this.startAngle;
+    x[State.DcBus] = this.startVdc;
+    x[State.EnergyIn] = this.startIn;
+    x[State.EnergyCopper] = this.startCopper;
+    x[State.EnergyLoad] = this.startLoad;
+    x[State.EnergyFriction] = this.startFriction;
+  }
+
+  /**
+   * derive() for two closed legs p < q (currents currentP, currentQ) and a floating leg without
+   * current: the same derivative bit for bit, since the floating phase adds exact zeros to every sum
+   * there and its back-EMF is not needed. Leaves slopeCurrentP, slopeCurrentQ, the mechanical
+   * derivative and powers, the neutral voltage, the torque and phase a's position (phaseA).
+   */
+  private deriveTwoLegs(): void {
+    const speed = this.speed;
+    const turns = this.periodsPerRad * this.angle;
+    const ua = turns - Math.floor(turns);
+    this.phaseA = ua;
+    let up = ua + this.offsetP;
+    if (up < 0) up += 1;
+    else if (up >= 1) up -= 1;
+    let uq = ua + this.offsetQ;
+    if (uq < 0) uq += 1;
+    else if (uq >= 1) uq -= 1;
+    const table = this.table;
+    const fp = table === null ? this.trapezoid(up) : tableShape(up, table);
+    const fq = table === null ? this.trapezoid(uq) : tableShape(uq, table);
+    const emfPerUnit = this.ke * speed;
+    const ep = emfPerUnit * fp;
+    const eq = emfPerUnit * fq;
+    const vp = this.voltageP;
+    const vq = this.voltageQ;
+    const ip = this.currentP;
+    const iq = this.currentQ;
+    const resistance = this.resistance;
+    const neutral = 0.5 * (vp - ep + (vq - eq));
+    this.slopeCurrentP = (vp - neutral - resistance * ip - ep) * this.inverseInductance;
+    this.slopeCurrentQ = (vq - neutral - resistance * iq - eq) * this.inverseInductance;
+    const torque = this.ke * (fp * ip + fq * iq);
+    const friction = this.friction;
+    const load = this.load;
+    // As in derive().
+    const loadTorqueNm =
+      load.active === 0
+        ? 0
+        : load.kind === LoadKindIndex.Quadratic
+          ? load.quadraticCoefficient * speed * Math.abs(speed)
+          : speed > 0
+            ? load.torqueNm
+            : loadTorque(load, speed, torque - friction * speed);
+    this.dSpeed = (torque - loadTorqueNm - friction * speed) * this.inverseInertia;
+    this.inputPower = vp * ip + vq * iq;
+    this.copperLoss = resistance * (ip * ip + iq * iq);
+    this.loadPower = loadTorqueNm * speed;
+    this.frictionLoss = friction * speed * speed;
+    this.neutral = neutral;
+    this.torque = torque;
+    this.loadTorqueNm = loadTorqueNm;
   }
 
   /** The equations (see the class comment) at the state in the fields; results into the fields. */

@@ -52,12 +52,36 @@ function config(options: { flatTopDeg: number; rectifier: boolean; legFactor: nu
 }
 
 // Leg states of a six-step inverter: two legs switched, the third freewheeling or floating, all open.
+// floatingAtZero: the floating phase carries exactly no current, as after its diode has blocked
+// (then the model takes its two-leg equations on a stiff bus).
 const LEG_STATES = [
-  { legFactor: [1, 0, 0], closed: [1, 1, 0] },
-  { legFactor: [0.6, 0, 1], closed: [1, 1, 1] },
-  { legFactor: [0, 1, 0], closed: [0, 1, 0] },
-  { legFactor: [0, 0, 0], closed: [0, 0, 0] },
+  { legFactor: [1, 0, 0], closed: [1, 1, 0], floatingAtZero: false },
+  { legFactor: [1, 0, 0], closed: [1, 1, 0], floatingAtZero: true },
+  { legFactor: [0, 0.7, 0], closed: [0, 1, 1], floatingAtZero: true },
+  { legFactor: [0, 0, 1], closed: [1, 0, 1], floatingAtZero: true },
+  { legFactor: [0.6, 0, 1], closed: [1, 1, 1], floatingAtZero: false },
+  { legFactor: [0, 1, 0], closed: [0, 1, 0], floatingAtZero: false },
+  { legFactor: [0, 0, 0], closed: [0, 0, 0], floatingAtZero: false },
 ];
+
+/** A random state for a leg state: currents summing to zero (the floating one at zero when asked), speed, angle, bus, energies. */
+function randomState(random: () => number, legs: (typeof LEG_STATES)[number]): Float64Array<ArrayBuffer> {
+  const x = new Float64Array(STATE_SIZE);
+  x[0] = (random() - 0.5) * 40;
+  x[1] = (random() - 0.5) * 40;
+  x[2] = -(x[0] as number) - (x[1] as number);
+  const floating = legs.closed.indexOf(0);
+  if (legs.floatingAtZero && floating >= 0) {
+    const other = (floating + 1) % 3;
+    x[floating] = 0;
+    x[(floating + 2) % 3] = -(x[other] as number);
+  }
+  x[3] = random() * 400;
+  x[4] = random() * 50;
+  x[5] = 250 + random() * 300;
+  for (let k = 6; k < STATE_SIZE; k += 1) x[k] = random() * 100;
+  return x;
+}
 
 describe('BldcModel.rk4Step (the simulation inner step)', () => {
   it('gives the generic RK4 step of the same derivative, state, derivative and auxiliary outputs', () => {
@@ -70,14 +94,7 @@ describe('BldcModel.rk4Step (the simulation inner step)', () => {
           const reference = config({ flatTopDeg, rectifier, quadratic: rectifier, ...legs });
           const derivative = createBldcDerivative(reference);
           for (let trial = 0; trial < 20; trial += 1) {
-            const x = new Float64Array(STATE_SIZE);
-            x[0] = (random() - 0.5) * 40;
-            x[1] = (random() - 0.5) * 40;
-            x[2] = -(x[0] as number) - (x[1] as number);
-            x[3] = random() * 400;
-            x[4] = random() * 50;
-            x[5] = 250 + random() * 300;
-            for (let k = 6; k < STATE_SIZE; k += 1) x[k] = random() * 100;
+            const x = randomState(random, legs);
             const t = random() * 0.1;
             const h = 1e-6 + random() * 1e-5;
             const k1 = new Float64Array(STATE_SIZE);
@@ -107,6 +124,49 @@ describe('BldcModel.rk4Step (the simulation inner step)', () => {
       }
     }
     expect(checked).toBe(LEG_STATES.length * 2 * 3 * 20);
+  });
+
+  it('chained in its fields (startFrom, stepAhead, acceptStep) gives rk4Step bit for bit, with the floating terminal and the torque', () => {
+    // What the simulation does between switching events must be exactly the step it takes otherwise
+    // (common practice, no source: the two are the same arithmetic, so any difference is a mistake).
+    const random = generator(7);
+    for (const legs of LEG_STATES) {
+      for (const [quadratic, rectifier] of [[false, false], [true, false], [true, true]] as const) {
+        const setup = config({ flatTopDeg: 120 + 30 * random(), rectifier, quadratic, ...legs });
+        const vectors = new BldcModel(setup);
+        const fields = new BldcModel(setup);
+        let x = randomState(random, legs);
+        let k1 = new Float64Array(STATE_SIZE);
+        vectors.evaluate(x, k1, new Float64Array(AUX_SIZE));
+        fields.startFrom(x, k1);
+        const floating = legs.closed.indexOf(0);
+        const oneFloating = legs.closed.filter((c) => c === 0).length === 1;
+        // The two-leg equations need a stiff bus and a floating phase at exactly zero current.
+        expect(fields.twoLegs).toBe(oneFloating && legs.floatingAtZero && !rectifier);
+        let out = new Float64Array(STATE_SIZE);
+        let kOut = new Float64Array(STATE_SIZE);
+        const aux = new Float64Array(AUX_SIZE);
+        const h = 2e-6;
+        for (let step = 0; step < 300; step += 1) {
+          vectors.time = step * h;
+          vectors.stepS = h;
+          vectors.rk4Step(x, k1, out, kOut, aux);
+          fields.time = step * h;
+          fields.stepS = h;
+          fields.stepAhead(false);
+          const ends = [fields.endA, fields.endB, fields.endC, fields.endSpeed, fields.endAngle, fields.endVdc, fields.endIn, fields.endCopper, fields.endLoad, fields.endFriction];
+          for (let k = 0; k < STATE_SIZE; k += 1) expect(ends[k]).toBe(out[k]);
+          expect(fields.torque).toBe(aux[AUX_TORQUE]);
+          if (oneFloating) expect(fields.openTerminalV).toBe(aux[AUX_TERMINAL_V + floating]);
+          fields.acceptStep();
+          [x, out] = [out, x];
+          [k1, kOut] = [kOut, k1];
+        }
+        const written = new Float64Array(STATE_SIZE);
+        fields.writeStart(written);
+        expect(Array.from(written)).toEqual(Array.from(x));
+      }
+    }
   });
 });
 
