@@ -16,6 +16,8 @@ import type { Derivative } from './model.js';
 export const DEFAULT_MAX_STEPS = 50_000_000;
 /** Iterations after which event location gives up and throws. */
 export const MAX_EVENT_ITERATIONS = 100;
+/** Bisections after them, for an event function that jumps at its root [-] (2^-64 of the bracket: below any tolerance). */
+const MAX_BISECTIONS = 64;
 
 /** Stage and scratch arrays for RK4 on a state of `size` numbers, made once per run. */
 export interface Rk4Workspace {
@@ -91,8 +93,9 @@ export function integrateRk4(f: Derivative, initial: ArrayLike<number>, t0: numb
 
 /**
  * Locates the root of a scalar event function g(τ) bracketed by g(a) > 0 ≥ g(b) by the Illinois
- * variant of regula falsi ([3]; [2] §9.2). Returns the end of the final bracket (where g ≤ 0), so the
- * event has happened at the returned τ.
+ * variant of regula falsi ([3]; [2] §9.2), finishing by bisection if that has not closed the bracket
+ * after maxIterations. Returns the end of the final bracket (where g ≤ 0), so the event has happened
+ * at the returned τ.
  * @param g event function of the step fraction τ [s]
  * @param a left end [s] with g(a) = ga > 0
  * @param ga g(a)
@@ -126,5 +129,17 @@ export function locateEvent(g: (tau: number) => number, a: number, ga: number, b
       side = -1;
     }
   }
-  throw new CalcInputError('stepS', `is too coarse: a switching event could not be located within ${maxIterations} iterations`);
+  // Regula falsi crawls when g jumps at the event (a floating terminal when a square back-EMF
+  // reverses): bisection then closes the bracket whatever g does, 1 bit per evaluation.
+  for (let iteration = 0; iteration < MAX_BISECTIONS; iteration++) {
+    if (right - left <= tolerance) return right;
+    const tau = 0.5 * (left + right);
+    const value = g(tau);
+    if (value > 0) left = tau;
+    else {
+      right = tau;
+      if (value === 0) return right;
+    }
+  }
+  throw new CalcInputError('stepS', `is too coarse: a switching event could not be located within ${maxIterations + MAX_BISECTIONS} iterations`);
 }

@@ -694,7 +694,10 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
       for (let j = 0; j < Event.Count; j++) {
         if (!this.crossed(j)) continue;
         const a = this.g0[j] as number;
-        const tau = a > 0 ? (stepLength * a) / (a - (this.g1[j] as number)) : 0;
+        // The event just located lies at the end of this step by construction (locateEvent closed its
+        // bracket there). Its chord estimate can fall short when g jumps there, as a floating
+        // terminal does when a square back-EMF reverses, and would send the search back forever.
+        const tau = j === refined ? stepLength : a > 0 ? (stepLength * a) / (a - (this.g1[j] as number)) : 0;
         if (tau < earliestTau) {
           earliestTau = tau;
           earliest = j;

@@ -53,7 +53,17 @@ describe('event location', () => {
 
   it('throws instead of looping when the iteration guard is reached', () => {
     expect(() => locateEvent(Math.cos, 0, 1, 2, Math.cos(2), 0, 3)).toThrow(
-      '"stepS" is too coarse: a switching event could not be located within 3 iterations',
+      '"stepS" is too coarse: a switching event could not be located within 67 iterations',
     );
+  });
+
+  it('closes in on an event where g jumps, as a floating terminal does when a square back-EMF reverses', () => {
+    // Common practice, no source: a discontinuous g has its "root" at the jump; the located τ must
+    // lie just past it, within the tolerance.
+    // Lopsided values (regula falsi alone keeps its trial points near the small side and runs out of iterations).
+    const jump = (tau: number): number => (tau < 0.7 ? 1 : -1000);
+    const root = locateEvent(jump, 0, 1, 1, -1000, 1e-12);
+    expect(root).toBeGreaterThanOrEqual(0.7);
+    expect(root - 0.7).toBeLessThan(1e-12);
   });
 });

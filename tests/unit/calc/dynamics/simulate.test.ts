@@ -180,6 +180,17 @@ describe('simulate: drive features', () => {
     expect(result.summary.efficiencyPct).toBeLessThan(100);
   });
 
+  it('runs a square back-EMF (180° flat top) under speed and current control to its set speed, energy balanced', () => {
+    // A square EMF reverses the floating terminal in one jump, an event function that is discontinuous
+    // at its root (it once stopped the run with "stepS is too large"). Common practice, no source: the
+    // speed loop must hold the set speed and the energy account must close.
+    for (const control of [{ setSpeedRpm: 2000 }, { setSpeedRpm: 2000, currentLimitA: 15 }, { setSpeedRpm: 2000, currentLimitA: 15, currentControl: 'hysteresis' as const }]) {
+      const result = run({ durationS: 0.1, load: { kind: 'quadratic', torqueNm: 2, atSpeedRpm: 3000 }, ...control }, { flatTopElectricalDeg: 180 });
+      expect(Math.abs(result.summary.finalSpeedRpm / 2000 - 1)).toBeLessThan(0.01);
+      expect(Math.abs(result.summary.energyBalanceResidualPct)).toBeLessThan(0.01);
+    }
+  });
+
   it('runs from a rectifier and DC-link capacitor, and the link sags under load', () => {
     const result = run({ durationS: 0.04, supply: { kind: 'rectifier', lineVoltageV: 200, frequencyHz: 50, capacitanceF: 1e-3 }, load: { kind: 'constant', torqueNm: 3 } });
     const { values, length } = result.series;
