@@ -530,11 +530,11 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
 
   /**
    * Takes grid steps in the model's fields while nothing happens: no event crossed, no time event,
-   * no controller sample and no recorded point due, with at most one leg floating. Each step is the one gridStep would
-   * take (the same RK4 arithmetic, bit for bit); it stops before any step in which an event value
-   * reaches zero or the state stops being finite, and leaves that step and the bookkeeping steps to
-   * gridStep. Why: per step, gridStep writes the derivative, the auxiliary outputs and every event
-   * value into vectors and swaps them, which cost about a third of a run.
+   * no controller sample and no recorded point due, with at most one leg floating. Each step is the
+   * one gridStep would take (the same RK4 arithmetic, bit for bit); it stops before any step in
+   * which an event value reaches zero or the state stops being finite, and leaves that step and the
+   * bookkeeping steps to gridStep. Why: per step, gridStep writes the derivative, the auxiliary
+   * outputs and every event value into vectors and swaps them, which cost about a third of a run.
    * @param last grid step index to stop at [-]
    */
   private quietSteps(last: number): void {
