@@ -319,7 +319,7 @@ export class BldcModel {
   endCopper = 0;
   endLoad = 0;
   endFriction = 0;
-  /** Terminal voltage of the floating leg at the end of stepAhead [V] (when exactly one leg floats). */
+  /** Terminal voltage of the floating leg at the end of stepAhead(false) [V] (when exactly one leg floats; with full outputs, writeAux gives it). */
   openTerminalV = 0;
   /** True while startFrom found the two-leg case; then openLeg is the floating leg. */
   twoLegs = false;
