@@ -128,9 +128,9 @@ export type FigureColumns = Record<OptionFigure, Float64Array>;
 /** Option slots per motor: every option of OPTIONS, in its order (slot 0 is the baseline 'keep'). */
 export const OPTION_SLOTS = OPTIONS.length;
 
-/** Figure columns of `rows` rows, every value NaN until written. */
+/** Figure columns of `rows` rows (zeros; the core writes every row of a motor it assesses). */
 export function figureColumns(rows: number): FigureColumns {
-  const column = (): Float64Array => new Float64Array(rows).fill(Number.NaN);
+  const column = (): Float64Array => new Float64Array(rows);
   // A literal, not properties added in a loop: the object keeps one fixed shape, so the hot loops
   // read its columns as fast properties.
   return {
@@ -341,6 +341,33 @@ export interface AssessmentContext {
   currency: string | null;
   /** The site-level assumption entries (rates, lives, tariff, CO2, price book), in the report's order. */
   entries: Assumption[];
+  /**
+   * Capex by rated power [kW]: per option slot without (slots 0–11) and with a drive today (12–23),
+   * NaN until computed. A register repeats few ratings, so each is priced once per batch.
+   */
+  capexByRating: Map<number, Float64Array>;
+  /** Life factors by option slot, filled on first use. */
+  lifeBySlot: (LifeFactors | undefined)[];
+}
+
+/** Ratings the capex memo of a batch holds before it starts again [-]. */
+const CAPEX_MEMO_RATINGS = 4096;
+
+/** Capex of an option for a motor, priced once per rating, drive today and slot in a batch [currency]. */
+function memoCapex(context: AssessmentContext, slot: number, option: OptionDefinition, ratedPowerKw: number, hasDriveToday: boolean): number {
+  let byRating = context.capexByRating.get(ratedPowerKw);
+  if (byRating === undefined) {
+    if (context.capexByRating.size >= CAPEX_MEMO_RATINGS) context.capexByRating.clear(); // a bound on memory, not a model
+    byRating = new Float64Array(2 * OPTION_SLOTS).fill(Number.NaN);
+    context.capexByRating.set(ratedPowerKw, byRating);
+  }
+  const index = hasDriveToday ? OPTION_SLOTS + slot : slot;
+  let capex = byRating[index]!;
+  if (Number.isNaN(capex)) {
+    capex = optionCapex(option, context.book, ratedPowerKw, hasDriveToday); // throws, each time, on a bad price book
+    byRating[index] = capex;
+  }
+  return capex;
 }
 
 /**
@@ -405,6 +432,8 @@ export function assessmentContext(site: SiteInput, priceBook: PriceBookInput | u
     book,
     currency: site.currency ?? book.currency ?? null,
     entries,
+    capexByRating: new Map(),
+    lifeBySlot: [],
   };
 }
 
@@ -629,7 +658,7 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   // Rates, lives, tariff, price book: the site's (worked out once per batch).
   if (used !== null) for (const entry of context.entries) used.push(entry);
   if (context.error !== null) throw context.error;
-  const { discountRate, escalation, lives, rewindPenalty, newDriveClass, price, demandCharge, co2Factor, book } = context;
+  const { discountRate, escalation, lives, rewindPenalty, newDriveClass, price, demandCharge, co2Factor } = context;
 
   // Today's motor: rated efficiency.
   const rewinds = motor.rewinds ?? 0;
@@ -847,12 +876,16 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
     const annualCost = energyCost + demandCost;
     const savingsKwh = baselineKwh - annualKwh;
     const savingsCost = baselineCost - annualCost;
-    const capex = optionCapex(option, book, ratedPowerKw, hasDriveToday);
+    const capex = memoCapex(context, slot, option, ratedPowerKw, hasDriveToday);
     const lifeYears = option.speedControl ? Math.min(lives[option.family], lives.vsd) : lives[option.family];
     // The savings series CF_t = S·(1+g)^(t−1) is used in closed form or summed on the fly, never built.
     checkSavingsCashFlows(capex, lifeYears, escalation);
     const isBaseline = slot === 0;
-    const life = lifeFactors(lifeYears, discountRate, escalation);
+    let life = context.lifeBySlot[slot];
+    if (life === undefined) {
+      life = lifeFactors(lifeYears, discountRate, escalation);
+      context.lifeBySlot[slot] = life;
+    }
     const lcc = capex + presentValueWithFactor(annualCost, life.series); // lifeCycleCost, with the power computed once per life
     columns.ratedEfficiencyPct[row] = round2(physics.ratedEfficiency[slot]! * 100);
     columns.lifeYears[row] = lifeYears;
