@@ -128,9 +128,14 @@ export type FigureColumns = Record<OptionFigure, Float64Array>;
 /** Option slots per motor: every option of OPTIONS, in its order (slot 0 is the baseline 'keep'). */
 export const OPTION_SLOTS = OPTIONS.length;
 
-/** Figure columns of `rows` rows (zeros; the core writes every row of a motor it assesses). */
+/**
+ * Figure columns of `rows` rows (zeros; the core writes every row of a motor it assesses): views
+ * into one buffer, one allocation instead of one per figure.
+ */
 export function figureColumns(rows: number): FigureColumns {
-  const column = (): Float64Array => new Float64Array(rows);
+  const buffer = new ArrayBuffer(rows * OPTION_FIGURES.length * Float64Array.BYTES_PER_ELEMENT);
+  let next = 0;
+  const column = (): Float64Array => new Float64Array(buffer, rows * Float64Array.BYTES_PER_ELEMENT * next++, rows);
   // A literal, not properties added in a loop: the object keeps one fixed shape, so the hot loops
   // read its columns as fast properties.
   return {
