@@ -547,8 +547,16 @@ function evaluateOption(slot: number, points: PointColumns, ratedPowerKw: number
   let peakKw = 0;
   let peakCurrent = 0;
   let peakKva = 0;
+  // The model's fields as locals: the loop calls domain functions, after which the engine would
+  // otherwise reload them from the shared scratch object.
   const curve = model.curve;
   const split = model.split;
+  const driveClass = model.driveClass;
+  const noLoadCurrentShare = model.noLoadCurrentShare;
+  const isPermanentMagnet = model.isPermanentMagnet;
+  const driveLossKw = model.driveFullLoadLossKw;
+  const ratedEfficiency = model.ratedEfficiency;
+  const fullLoadReactiveKvar = model.fullLoadReactiveKvar;
   for (let index = 0; index < points.count; index += 1) {
     const runHours = points.runHours[index]!;
     const shaftKw = points.shaftKw[index]!;
@@ -564,16 +572,16 @@ function evaluateOption(slot: number, points: PointColumns, ratedPowerKw: number
         powerFactor = reading.powerFactor;
       } else {
         const motorInputKw = shaftKw + machineLossKw(split!, speedFraction, torqueFraction);
-        if (model.driveClass) {
+        if (driveClass) {
           const t = torqueFraction;
-          const m = model.noLoadCurrentShare;
+          const m = noLoadCurrentShare;
           // Motor current / rated: ∝ torque for a PM motor; magnetising part in quadrature for an induction motor.
-          const currentFraction = model.isPermanentMagnet ? t : Math.sqrt(m * m + (1 - m * m) * t * t);
-          inputKw = motorInputKw + driveLossFromFullLoadKw(model.driveFullLoadLossKw, currentFraction);
-          powerFactor = driveInputPowerFactor(Math.min((motorInputKw * model.ratedEfficiency) / ratedPowerKw, 1.5));
+          const currentFraction = isPermanentMagnet ? t : Math.sqrt(m * m + (1 - m * m) * t * t);
+          inputKw = motorInputKw + driveLossFromFullLoadKw(driveLossKw, currentFraction);
+          powerFactor = driveInputPowerFactor(Math.min((motorInputKw * ratedEfficiency) / ratedPowerKw, 1.5));
         } else {
           inputKw = motorInputKw;
-          const reactive = inductionReactiveKvar(model.fullLoadReactiveKvar, 1, torqueFraction);
+          const reactive = inductionReactiveKvar(fullLoadReactiveKvar, 1, torqueFraction);
           powerFactor = inputKw / Math.sqrt(inputKw * inputKw + reactive * reactive);
         }
       }
@@ -607,7 +615,7 @@ function evaluateOption(slot: number, points: PointColumns, ratedPowerKw: number
   physics.peakKw[slot] = peakKw;
   physics.peakCurrent[slot] = peakCurrent;
   physics.peakKva[slot] = peakKva;
-  physics.ratedEfficiency[slot] = model.ratedEfficiency;
+  physics.ratedEfficiency[slot] = ratedEfficiency;
 }
 
 /** Poles from the motor, or derived from its speed; `summary.polesDerived` says which. */
@@ -627,6 +635,9 @@ function resolvePoles(motor: MotorInput, frequencyHz: number, summary: MotorSumm
   }
   throw new CalcInputError('motor.speedRpm', `matches no 2-, 4-, 6- or 8-pole induction motor at ${frequencyHz} Hz`);
 }
+
+/** Loss splits of the induction options of one motor by slot (module scratch). */
+const familySplits: (LossSplit | null)[] = new Array<LossSplit | null>(OPTION_SLOTS).fill(null);
 
 /** Rated efficiency [-] and its source by induction option family (sources only when recording). */
 const inductionEfficiency = { keep: 0, rewind: 0, ie3: 0, ie4: 0, ie5: 0 };
@@ -835,7 +846,10 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
       const efficiency = inductionEfficiency[option.family];
       const driveClass = option.speedControl ? newDriveClass : todayDrive;
       model.ratedEfficiency = efficiency;
-      model.split = lossSplit(ratedPowerKw, efficiency, INDUCTION_CONSTANT_LOSS_SHARE);
+      // A family's split serves its speed-control variant too (slot − 6): same rating, same efficiency.
+      const split = option.speedControl ? familySplits[slot - OPTION_SLOTS / 2]! : lossSplit(ratedPowerKw, efficiency, INDUCTION_CONSTANT_LOSS_SHARE);
+      familySplits[slot] = split;
+      model.split = split;
       model.curve = null;
       model.fullLoadReactiveKvar = (ratedPowerKw / efficiency) * (sinPhi / ratedPowerFactor);
       model.noLoadCurrentShare = INDUCTION_MAGNETISING_REACTIVE_SHARE * sinPhi;
