@@ -114,6 +114,10 @@ function integerString(value: number): string {
 /** The core's figure rows of one assessment (module scratch: read into the result before the next call). */
 const rows = figureColumns(OPTION_SLOTS);
 
+/** Scratch of `assess` (filled and read within one call). */
+const scratchRecording: Recording = { used: [], withBins: true, bins: new Array<BinResult[]>(OPTION_SLOTS), optionAssumptions: new Array<Assumption[]>(OPTION_SLOTS) };
+const scratchSummary = motorSummary();
+
 /** A figure reported as null: NaN in the core's column. */
 const orNull = (value: number): number | null => (Number.isNaN(value) ? null : value);
 
@@ -142,16 +146,19 @@ const orNull = (value: number): number | null => (Number.isNaN(value) ? null : v
  * @throws CalcInputError naming the field for input that breaks a rule.
  */
 export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBookInput, assumptions?: AssumptionsInput, options?: AssessOptions): AssessResult {
-  const context = assessmentContext(site, priceBook, assumptions, true);
-  const recording: Recording = { used: [], withBins: options?.detail !== 'totals', bins: [], optionAssumptions: [] };
-  const summary = motorSummary();
+  const context = assessmentContext(site, priceBook, assumptions, true, false);
+  // The recording and summary are module scratch; what goes into the result (the assumption list,
+  // each option's bins and assumptions) is new for every call.
+  const recording = scratchRecording;
+  recording.used = [];
+  recording.withBins = options?.detail !== 'totals';
+  const summary = scratchSummary;
   assessMotorInto(motor, context, rows, 0, summary, recording);
 
-  const results: OptionResult[] = [];
-  for (let slot = 0; slot < OPTION_SLOTS; slot += 1) {
+  const results = new Array<OptionResult>(summary.speedControl ? OPTION_SLOTS : OPTION_SLOTS / 2);
+  for (let slot = 0; slot < results.length; slot += 1) {
     const option = OPTIONS[slot]!;
-    if (option.speedControl && !summary.speedControl) continue;
-    results.push({
+    results[slot] = {
       code: option.code,
       label: option.label,
       ratedEfficiencyPct: rows.ratedEfficiencyPct[slot]!,
@@ -178,14 +185,15 @@ export function assess(motor: MotorInput, site: SiteInput, priceBook?: PriceBook
       kvaReduction: rows.kvaReduction[slot]!,
       bins: recording.bins[slot]!,
       assumptions: recording.optionAssumptions[slot]!,
-    });
+    };
   }
 
   // Recommendation: the highest NPV above zero (the core's slot), with the reason.
   const discountPct = context.discountRate * 100;
   const currency = context.currency;
   const unit = currency ? ` ${currency}` : '';
-  const best = summary.recommendedSlot > 0 ? results.find((result) => result.code === OPTIONS[summary.recommendedSlot]!.code)! : null;
+  // The slots of the options that apply are 0…5, or 0…11: a result's index is its slot.
+  const best = summary.recommendedSlot > 0 ? results[summary.recommendedSlot]! : null;
   const recommended = best
     ? {
         code: best.code,

@@ -350,9 +350,9 @@ export interface AssessmentContext {
    * Capex by rated power [kW]: per option slot without (slots 0–11) and with a drive today (12–23),
    * NaN until computed. A register repeats few ratings, so each is priced once per batch.
    */
-  capexByRating: Map<number, Float64Array>;
+  capexByRating: Map<number, Float64Array> | null;
   /** Life factors by option slot, filled on first use. */
-  lifeBySlot: (LifeFactors | undefined)[];
+  lifeBySlot: (LifeFactors | undefined)[] | null;
 }
 
 /** Ratings the capex memo of a batch holds before it starts again [-]. */
@@ -360,6 +360,7 @@ const CAPEX_MEMO_RATINGS = 4096;
 
 /** Capex of an option for a motor, priced once per rating, drive today and slot in a batch [currency]. */
 function memoCapex(context: AssessmentContext, slot: number, option: OptionDefinition, ratedPowerKw: number, hasDriveToday: boolean): number {
+  if (context.capexByRating === null) return optionCapex(option, context.book, ratedPowerKw, hasDriveToday);
   let byRating = context.capexByRating.get(ratedPowerKw);
   if (byRating === undefined) {
     if (context.capexByRating.size >= CAPEX_MEMO_RATINGS) context.capexByRating.clear(); // a bound on memory, not a model
@@ -381,9 +382,11 @@ function memoCapex(context: AssessmentContext, slot: number, option: OptionDefin
  * @param site the site (SiteInput); @param priceBook optional, missing parts from DEFAULT_PRICE_BOOK
  * @param assumptions optional overrides of calc/assess/defaults.ts
  * @param record when true, the site-level assumption entries are built too
+ * @param batch when true, capex is memoised by rating and life factors by slot (worth it over many
+ *   motors, not for one)
  * @returns the context; an invalid tariff or price-book currency is kept in `error`, not thrown.
  */
-export function assessmentContext(site: SiteInput, priceBook: PriceBookInput | undefined, assumptions: AssumptionsInput | undefined, record: boolean): AssessmentContext {
+export function assessmentContext(site: SiteInput, priceBook: PriceBookInput | undefined, assumptions: AssumptionsInput | undefined, record: boolean, batch: boolean): AssessmentContext {
   const discountRate = (assumptions?.discountRatePct ?? DEFAULT_DISCOUNT_RATE_PCT) / 100;
   const escalation = (assumptions?.energyEscalationPct ?? DEFAULT_ENERGY_ESCALATION_PCT) / 100;
   // Read only, so the defaults need no copy when no life is given.
@@ -437,8 +440,8 @@ export function assessmentContext(site: SiteInput, priceBook: PriceBookInput | u
     book,
     currency: site.currency ?? book.currency ?? null,
     entries,
-    capexByRating: new Map(),
-    lifeBySlot: [],
+    capexByRating: batch ? new Map() : null,
+    lifeBySlot: batch ? [] : null,
   };
 }
 
@@ -454,6 +457,11 @@ class PointColumns {
   shaftKw = new Float64Array(16);
   speedFraction = new Float64Array(16);
   torqueFraction = new Float64Array(16);
+  /** The per-bin figures that do not depend on the option, rounded once per point for the bins. */
+  runHoursRounded = new Float64Array(16);
+  shaftKwRounded = new Float64Array(16);
+  loadFractionRounded = new Float64Array(16);
+  speedFractionRounded = new Float64Array(16);
 
   reset(count: number): void {
     this.count = count;
@@ -465,6 +473,21 @@ class PointColumns {
     this.shaftKw = new Float64Array(size);
     this.speedFraction = new Float64Array(size);
     this.torqueFraction = new Float64Array(size);
+    this.runHoursRounded = new Float64Array(size);
+    this.shaftKwRounded = new Float64Array(size);
+    this.loadFractionRounded = new Float64Array(size);
+    this.speedFractionRounded = new Float64Array(size);
+  }
+
+  /** Fills the rounded figures (only when per-bin results are built). */
+  round(ratedPowerKw: number): void {
+    for (let index = 0; index < this.count; index += 1) {
+      const shaftKw = this.shaftKw[index]!;
+      this.runHoursRounded[index] = round2(this.runHours[index]!);
+      this.shaftKwRounded[index] = round4(shaftKw);
+      this.loadFractionRounded[index] = round4(shaftKw / ratedPowerKw);
+      this.speedFractionRounded[index] = round4(this.speedFraction[index]!);
+    }
   }
 }
 
@@ -600,10 +623,10 @@ function evaluateOption(slot: number, points: PointColumns, ratedPowerKw: number
     bins.push({
       fraction: points.fraction[index]!,
       hours: points.hours[index]!,
-      runHours: round2(runHours),
-      shaftKw: round4(shaftKw),
-      loadFraction: round4(shaftKw / ratedPowerKw),
-      speedFraction: round4(speedFraction),
+      runHours: points.runHoursRounded[index]!,
+      shaftKw: points.shaftKwRounded[index]!,
+      loadFraction: points.loadFractionRounded[index]!,
+      speedFraction: points.speedFractionRounded[index]!,
       inputKw: round4(inputKw),
       efficiency: inputKw > 0 ? round4(shaftKw / inputKw) : 0,
       powerFactor: round3(powerFactor),
@@ -786,6 +809,11 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
     }
   }
 
+  if (recording !== null && recording.withBins) {
+    todayPoints.round(ratedPowerKw);
+    if (speedControl) speedPoints.round(ratedPowerKw);
+  }
+
   // Option models.
   const existingDriveClass: DriveClass = motor.driveClass ?? DEFAULT_EXISTING_DRIVE_CLASS;
   if (used !== null) {
@@ -900,10 +928,10 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
     // The savings series CF_t = S·(1+g)^(t−1) is used in closed form or summed on the fly, never built.
     checkSavingsCashFlows(capex, lifeYears, escalation);
     const isBaseline = slot === 0;
-    let life = context.lifeBySlot[slot];
+    let life = context.lifeBySlot === null ? undefined : context.lifeBySlot[slot];
     if (life === undefined) {
       life = lifeFactors(lifeYears, discountRate, escalation);
-      context.lifeBySlot[slot] = life;
+      if (context.lifeBySlot !== null) context.lifeBySlot[slot] = life;
     }
     const lcc = capex + presentValueWithFactor(annualCost, life.series); // lifeCycleCost, with the power computed once per life
     columns.ratedEfficiencyPct[row] = round2(physics.ratedEfficiency[slot]! * 100);

@@ -69,7 +69,7 @@ export interface MotorScreening {
  * Equations and sources: those of `assess` (calc/assess/engine.ts and the domain functions).
  */
 export function screenMotors(motors: readonly MotorInput[], site: SiteInput, priceBook?: PriceBookInput, assumptions?: AssumptionsInput): MotorScreening {
-  const context = assessmentContext(site, priceBook, assumptions, false);
+  const context = assessmentContext(site, priceBook, assumptions, false, true);
   if (context.error !== null) throw context.error;
   const motorCount = motors.length;
   const figures = figureColumns(motorCount * OPTION_SLOTS);
