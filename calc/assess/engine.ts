@@ -697,7 +697,7 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   // Rates, lives, tariff, price book: the site's (worked out once per batch).
   if (used !== null) for (const entry of context.entries) used.push(entry);
   if (context.error !== null) throw context.error;
-  const { discountRate, escalation, lives, rewindPenalty, newDriveClass, price, demandCharge, co2Factor } = context;
+  const { rewindPenalty, newDriveClass, price, demandCharge } = context;
 
   // Today's motor: rated efficiency.
   const rewinds = motor.rewinds ?? 0;
@@ -903,62 +903,21 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
 
   // Money of every option, rounded once into the columns.
   const baselineKwh = physics.annualKwh[0]!;
-  const baselineCost = baselineKwh * price + annualDemandCost(physics.peakKw[0]!, demandCharge);
-  const baselineCurrent = physics.peakCurrent[0]!;
-  const baselineKva = physics.peakKva[0]!;
+  baseline.kwh = baselineKwh;
+  baseline.cost = baselineKwh * price + annualDemandCost(physics.peakKw[0]!, demandCharge);
+  baseline.current = physics.peakCurrent[0]!;
+  baseline.kva = physics.peakKva[0]!;
   let recommendedSlot = 0;
   let bestNpv = 0;
   for (let slot = 0; slot < OPTION_SLOTS; slot += 1) {
-    const option = OPTIONS[slot]!;
     const row = firstRow + slot;
-    if (option.speedControl && !speedControl) {
+    if (OPTIONS[slot]!.speedControl && !speedControl) {
       clearRow(columns, row);
       continue;
     }
-    const annualKwh = physics.annualKwh[slot]!;
-    const peakCurrent = physics.peakCurrent[slot]!;
-    const peakKva = physics.peakKva[slot]!;
-    const energyCost = annualKwh * price;
-    const demandCost = annualDemandCost(physics.peakKw[slot]!, demandCharge);
-    const annualCost = energyCost + demandCost;
-    const savingsKwh = baselineKwh - annualKwh;
-    const savingsCost = baselineCost - annualCost;
-    const capex = memoCapex(context, slot, option, ratedPowerKw, hasDriveToday);
-    const lifeYears = option.speedControl ? Math.min(lives[option.family], lives.vsd) : lives[option.family];
-    // The savings series CF_t = S·(1+g)^(t−1) is used in closed form or summed on the fly, never built.
-    checkSavingsCashFlows(capex, lifeYears, escalation);
-    const isBaseline = slot === 0;
-    let life = context.lifeBySlot === null ? undefined : context.lifeBySlot[slot];
-    if (life === undefined) {
-      life = lifeFactors(lifeYears, discountRate, escalation);
-      if (context.lifeBySlot !== null) context.lifeBySlot[slot] = life;
-    }
-    const lcc = capex + presentValueWithFactor(annualCost, life.series); // lifeCycleCost, with the power computed once per life
-    columns.ratedEfficiencyPct[row] = round2(physics.ratedEfficiency[slot]! * 100);
-    columns.lifeYears[row] = lifeYears;
-    columns.annualKwh[row] = round1(annualKwh);
-    columns.peakKw[row] = round3(physics.peakKw[slot]!);
-    columns.energyCost[row] = roundMoney(energyCost);
-    columns.demandCost[row] = roundMoney(demandCost);
-    columns.annualCost[row] = roundMoney(annualCost);
-    columns.annualCo2Kg[row] = round1(annualKwh * co2Factor);
-    columns.savingsKwh[row] = round1(savingsKwh);
-    columns.savingsCost[row] = roundMoney(savingsCost);
-    columns.co2SavedKg[row] = round1(savingsKwh * co2Factor);
-    columns.capex[row] = roundMoney(capex);
-    columns.simplePaybackYears[row] = isBaseline ? Number.NaN : round2OrNaN(simplePaybackYears(capex, savingsCost));
-    columns.discountedPaybackYears[row] = isBaseline ? Number.NaN : round2OrNaN(discountedPaybackOfEscalatingSavings(discountRate, capex, savingsCost, lifeYears, escalation));
-    const npv = roundMoney(netPresentValueOfEscalatingSavings(capex, savingsCost, life.series, escalation));
-    columns.npv[row] = npv;
-    columns.irr[row] = isBaseline || !(savingsCost > 0) ? Number.NaN : round4OrNaN(internalRateOfReturnOfEscalatingSavings(capex, savingsCost, lifeYears, escalation));
-    columns.lifeCycleCost[row] = roundMoney(lcc);
-    columns.equivalentAnnualCost[row] = roundMoney(lcc * life.capitalRecovery);
-    columns.lineCurrentA[row] = round2(peakCurrent);
-    columns.kva[row] = round3(peakKva);
-    columns.lineCurrentReductionA[row] = round2(baselineCurrent - peakCurrent);
-    columns.kvaReduction[row] = round3(baselineKva - peakKva);
+    const npv = optionMoney(context, slot, columns, row, ratedPowerKw, hasDriveToday);
     // Recommendation: the highest NPV above zero (the first of equal ones).
-    if (!isBaseline && npv > 0 && (recommendedSlot === 0 || npv > bestNpv)) {
+    if (slot > 0 && npv > 0 && (recommendedSlot === 0 || npv > bestNpv)) {
       recommendedSlot = slot;
       bestNpv = npv;
     }
@@ -974,6 +933,62 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   summary.annualHours = annualHours;
   summary.speedControl = speedControl;
   summary.recommendedSlot = recommendedSlot;
+}
+
+/** The baseline's raw figures the options' savings are measured from (module scratch, one motor at a time). */
+const baseline = { kwh: 0, cost: 0, current: 0, kva: 0 };
+
+/**
+ * Energy, cost, CO2, capex and the investment figures of the option in `slot`, from its physics
+ * totals, rounded once into the columns at `row`.
+ * @returns the rounded NPV [currency] (for the recommendation).
+ */
+function optionMoney(context: AssessmentContext, slot: number, columns: FigureColumns, row: number, ratedPowerKw: number, hasDriveToday: boolean): number {
+  const { price, demandCharge, co2Factor, discountRate, escalation, lives } = context;
+  const option = OPTIONS[slot]!;
+  const annualKwh = physics.annualKwh[slot]!;
+  const peakCurrent = physics.peakCurrent[slot]!;
+  const peakKva = physics.peakKva[slot]!;
+  const energyCost = annualKwh * price;
+  const demandCost = annualDemandCost(physics.peakKw[slot]!, demandCharge);
+  const annualCost = energyCost + demandCost;
+  const savingsKwh = baseline.kwh - annualKwh;
+  const savingsCost = baseline.cost - annualCost;
+  const capex = memoCapex(context, slot, option, ratedPowerKw, hasDriveToday);
+  const lifeYears = option.speedControl ? Math.min(lives[option.family], lives.vsd) : lives[option.family];
+  // The savings series CF_t = S·(1+g)^(t−1) is used in closed form or summed on the fly, never built.
+  checkSavingsCashFlows(capex, lifeYears, escalation);
+  const isBaseline = slot === 0;
+  let life = context.lifeBySlot === null ? undefined : context.lifeBySlot[slot];
+  if (life === undefined) {
+    life = lifeFactors(lifeYears, discountRate, escalation);
+    if (context.lifeBySlot !== null) context.lifeBySlot[slot] = life;
+  }
+  const lcc = capex + presentValueWithFactor(annualCost, life.series); // lifeCycleCost, with the power computed once per life
+  columns.ratedEfficiencyPct[row] = round2(physics.ratedEfficiency[slot]! * 100);
+  columns.lifeYears[row] = lifeYears;
+  columns.annualKwh[row] = round1(annualKwh);
+  columns.peakKw[row] = round3(physics.peakKw[slot]!);
+  columns.energyCost[row] = roundMoney(energyCost);
+  columns.demandCost[row] = roundMoney(demandCost);
+  columns.annualCost[row] = roundMoney(annualCost);
+  columns.annualCo2Kg[row] = round1(annualKwh * co2Factor);
+  columns.savingsKwh[row] = round1(savingsKwh);
+  columns.savingsCost[row] = roundMoney(savingsCost);
+  columns.co2SavedKg[row] = round1(savingsKwh * co2Factor);
+  columns.capex[row] = roundMoney(capex);
+  columns.simplePaybackYears[row] = isBaseline ? Number.NaN : round2OrNaN(simplePaybackYears(capex, savingsCost));
+  columns.discountedPaybackYears[row] = isBaseline ? Number.NaN : round2OrNaN(discountedPaybackOfEscalatingSavings(discountRate, capex, savingsCost, lifeYears, escalation));
+  const npv = roundMoney(netPresentValueOfEscalatingSavings(capex, savingsCost, life.series, escalation));
+  columns.npv[row] = npv;
+  columns.irr[row] = isBaseline || !(savingsCost > 0) ? Number.NaN : round4OrNaN(internalRateOfReturnOfEscalatingSavings(capex, savingsCost, lifeYears, escalation));
+  columns.lifeCycleCost[row] = roundMoney(lcc);
+  columns.equivalentAnnualCost[row] = roundMoney(lcc * life.capitalRecovery);
+  columns.lineCurrentA[row] = round2(peakCurrent);
+  columns.kva[row] = round3(peakKva);
+  columns.lineCurrentReductionA[row] = round2(baseline.current - peakCurrent);
+  columns.kvaReduction[row] = round3(baseline.kva - peakKva);
+  return npv;
 }
 
 /** Sets every figure of a row to NaN (an option that does not apply). */
