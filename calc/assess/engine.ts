@@ -457,11 +457,11 @@ class PointColumns {
   shaftKw = new Float64Array(16);
   speedFraction = new Float64Array(16);
   torqueFraction = new Float64Array(16);
-  /** The per-bin figures that do not depend on the option, rounded once per point for the bins. */
-  runHoursRounded = new Float64Array(16);
-  shaftKwRounded = new Float64Array(16);
-  loadFractionRounded = new Float64Array(16);
-  speedFractionRounded = new Float64Array(16);
+  /**
+   * The per-bin figures that do not depend on the option, rounded once per point when per-bin
+   * results are built; every option's BinResult copies them (plain numbers, shared, not re-boxed).
+   */
+  shared: SharedBinFigures[] = [];
 
   reset(count: number): void {
     this.count = count;
@@ -473,22 +473,37 @@ class PointColumns {
     this.shaftKw = new Float64Array(size);
     this.speedFraction = new Float64Array(size);
     this.torqueFraction = new Float64Array(size);
-    this.runHoursRounded = new Float64Array(size);
-    this.shaftKwRounded = new Float64Array(size);
-    this.loadFractionRounded = new Float64Array(size);
-    this.speedFractionRounded = new Float64Array(size);
   }
 
-  /** Fills the rounded figures (only when per-bin results are built). */
-  round(ratedPowerKw: number): void {
+  /**
+   * Fills `shared` (only when per-bin results are built).
+   * @param profile the duty profile, whose fraction and hours the bins repeat as given (null: one bin)
+   */
+  round(profile: readonly { fraction: number; hours: number }[] | null, singleFraction: number, singleHours: number, ratedPowerKw: number): void {
+    const shared = new Array<SharedBinFigures>(this.count);
     for (let index = 0; index < this.count; index += 1) {
       const shaftKw = this.shaftKw[index]!;
-      this.runHoursRounded[index] = round2(this.runHours[index]!);
-      this.shaftKwRounded[index] = round4(shaftKw);
-      this.loadFractionRounded[index] = round4(shaftKw / ratedPowerKw);
-      this.speedFractionRounded[index] = round4(this.speedFraction[index]!);
+      shared[index] = {
+        fraction: profile === null ? singleFraction : profile[index]!.fraction,
+        hours: profile === null ? singleHours : profile[index]!.hours,
+        runHours: round2(this.runHours[index]!),
+        shaftKw: round4(shaftKw),
+        loadFraction: round4(shaftKw / ratedPowerKw),
+        speedFraction: round4(this.speedFraction[index]!),
+      };
     }
+    this.shared = shared;
   }
+}
+
+/** The figures of a BinResult that every option shares. */
+interface SharedBinFigures {
+  fraction: number;
+  hours: number;
+  runHours: number;
+  shaftKw: number;
+  loadFraction: number;
+  speedFraction: number;
 }
 
 const todayPoints = new PointColumns();
@@ -620,19 +635,20 @@ function evaluateOption(slot: number, points: PointColumns, ratedPowerKw: number
       }
     }
     if (bins === null) continue;
-    bins.push({
-      fraction: points.fraction[index]!,
-      hours: points.hours[index]!,
-      runHours: points.runHoursRounded[index]!,
-      shaftKw: points.shaftKwRounded[index]!,
-      loadFraction: points.loadFractionRounded[index]!,
-      speedFraction: points.speedFractionRounded[index]!,
+    const shared = points.shared[index]!;
+    bins[index] = {
+      fraction: shared.fraction,
+      hours: shared.hours,
+      runHours: shared.runHours,
+      shaftKw: shared.shaftKw,
+      loadFraction: shared.loadFraction,
+      speedFraction: shared.speedFraction,
       inputKw: round4(inputKw),
       efficiency: inputKw > 0 ? round4(shaftKw / inputKw) : 0,
       powerFactor: round3(powerFactor),
       currentA: round2(currentA),
       kva: round3(kva),
-    });
+    };
   }
   physics.annualKwh[slot] = annualKwh;
   physics.peakKw[slot] = peakKw;
@@ -810,8 +826,8 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   }
 
   if (recording !== null && recording.withBins) {
-    todayPoints.round(ratedPowerKw);
-    if (speedControl) speedPoints.round(ratedPowerKw);
+    todayPoints.round(profile, singleFraction, singleHours, ratedPowerKw);
+    if (speedControl) speedPoints.round(profile, singleFraction, singleHours, ratedPowerKw);
   }
 
   // Option models.
@@ -887,7 +903,7 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
     }
     let bins: BinResult[] | null = null;
     if (recording !== null) {
-      bins = [];
+      bins = recording.withBins ? new Array<BinResult>(binCount) : [];
       recording.bins[slot] = bins;
       if (option.family === 'bldc') {
         recording.optionAssumptions[slot] = bldcAssumptions!;

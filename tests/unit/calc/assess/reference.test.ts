@@ -1,7 +1,8 @@
 /**
- * The optimised `assess` (per-point rounding shared by the options, memoised class values, life
- * factors computed once per life, a reused cash-flow buffer, a fast exact toFixed(0)) against a
- * straightforward reference written from the domain functions, for a few hundred generated motors.
+ * The optimised `assess` (its core in calc/assess/engine.ts: per-point rounding shared by the options,
+ * memoised class values, life factors computed once per life, the closed-form NPV and IRR of the
+ * escalating savings, a fast exact toFixed(0)) against a straightforward reference written from the
+ * domain functions (year-by-year cash flows), for a few hundred generated motors.
  * Identity of two implementations of the same published model (no published value is checked here).
  */
 import { describe, expect, it } from 'vitest';
