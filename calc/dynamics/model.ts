@@ -658,9 +658,10 @@ export class BldcModel {
     this.dib = open === 1 ? 0 : open === 0 ? this.slopeCurrentP : this.slopeCurrentQ;
     this.dic = open === 2 ? 0 : this.slopeCurrentQ;
     this.dVdc = 0;
-    let phase = this.phaseA + this.offsetOpen;
+    const offsetOpen = this.offsetOpen;
+    let phase = this.phaseA + offsetOpen;
     if (phase < 0) phase += 1;
-    else if (phase >= 1) phase -= 1;
+    else if (phase >= 1 && offsetOpen > 0) phase -= 1;
     const table = this.table;
     const shape = table === null ? this.trapezoid(phase) : tableShape(phase, table);
     this.openTerminalV = this.neutral + this.ke * endSpeed * shape;
@@ -715,12 +716,16 @@ export class BldcModel {
     const turns = this.periodsPerRad * this.angle;
     const ua = turns - Math.floor(turns);
     this.phaseA = ua;
-    let up = ua + this.offsetP;
+    // Wrapped as derive() wraps ub and uc, and phase a not at all: ua rounds to 1 for an angle just
+    // below zero, and a square EMF differs between positions 1 and 0.
+    const offsetP = this.offsetP;
+    let up = ua + offsetP;
     if (up < 0) up += 1;
-    else if (up >= 1) up -= 1;
-    let uq = ua + this.offsetQ;
+    else if (up >= 1 && offsetP > 0) up -= 1;
+    const offsetQ = this.offsetQ;
+    let uq = ua + offsetQ;
     if (uq < 0) uq += 1;
-    else if (uq >= 1) uq -= 1;
+    else if (uq >= 1 && offsetQ > 0) uq -= 1;
     const table = this.table;
     const fp = table === null ? this.trapezoid(up) : tableShape(up, table);
     const fq = table === null ? this.trapezoid(uq) : tableShape(uq, table);
