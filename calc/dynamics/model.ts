@@ -323,7 +323,7 @@ export class BldcModel {
   openTerminalV = 0;
   /** True while startFrom found the two-leg case; then openLeg is the floating leg. */
   twoLegs = false;
-  openLeg = 0;
+  private openLeg = 0;
   private offsetP = 0;
   private offsetQ = 0;
   private offsetOpen = 0;

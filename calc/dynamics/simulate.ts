@@ -612,8 +612,11 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
     }
     if (taken === 0) return;
     model.writeStart(this.x);
-    // k1, the auxiliary outputs and the event values of the new state are recomputed by ensureStart.
+    // Leave what a committed gridStep leaves (k1, auxiliary outputs, event values valid), so the next
+    // gridStep takes its plain path and has its whole guard of events, as it would have had. The
+    // evaluation gives kNext's bits: the same derive() at the same state and time.
     this.k1Valid = false;
+    this.ensureStart();
     this.untilRecord -= taken;
     this.untilControl -= taken;
   }
