@@ -351,6 +351,8 @@ export interface AssessmentContext {
    * NaN until computed. A register repeats few ratings, so each is priced once per batch.
    */
   capexByRating: Map<number, Float64Array> | null;
+  /** Life of each option slot [a]: its family's, or the shorter of it and the drive's for a speed-control option. */
+  lifeYearsBySlot: number[];
   /** Life factors by option slot, filled on first use. */
   lifeBySlot: (LifeFactors | undefined)[] | null;
 }
@@ -358,15 +360,21 @@ export interface AssessmentContext {
 /** Ratings the capex memo of a batch holds before it starts again [-]. */
 const CAPEX_MEMO_RATINGS = 4096;
 
-/** Capex of an option for a motor, priced once per rating, drive today and slot in a batch [currency]. */
-function memoCapex(context: AssessmentContext, slot: number, option: OptionDefinition, ratedPowerKw: number, hasDriveToday: boolean): number {
-  if (context.capexByRating === null) return optionCapex(option, context.book, ratedPowerKw, hasDriveToday);
+/** The capex memo of one rating in a batch (NaN until priced), or null for a single assessment. */
+function capexMemo(context: AssessmentContext, ratedPowerKw: number): Float64Array | null {
+  if (context.capexByRating === null) return null;
   let byRating = context.capexByRating.get(ratedPowerKw);
   if (byRating === undefined) {
     if (context.capexByRating.size >= CAPEX_MEMO_RATINGS) context.capexByRating.clear(); // a bound on memory, not a model
     byRating = new Float64Array(2 * OPTION_SLOTS).fill(Number.NaN);
     context.capexByRating.set(ratedPowerKw, byRating);
   }
+  return byRating;
+}
+
+/** Capex of an option for a motor, priced once per rating, drive today and slot in a batch [currency]. */
+function memoCapex(context: AssessmentContext, byRating: Float64Array | null, slot: number, option: OptionDefinition, ratedPowerKw: number, hasDriveToday: boolean): number {
+  if (byRating === null) return optionCapex(option, context.book, ratedPowerKw, hasDriveToday);
   const index = hasDriveToday ? OPTION_SLOTS + slot : slot;
   let capex = byRating[index]!;
   if (Number.isNaN(capex)) {
@@ -441,6 +449,7 @@ export function assessmentContext(site: SiteInput, priceBook: PriceBookInput | u
     currency: site.currency ?? book.currency ?? null,
     entries,
     capexByRating: batch ? new Map() : null,
+    lifeYearsBySlot: OPTIONS.map((option) => (option.speedControl ? Math.min(lives[option.family], lives.vsd) : lives[option.family])),
     lifeBySlot: batch ? [] : null,
   };
 }
@@ -923,6 +932,7 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   baseline.cost = baselineKwh * price + annualDemandCost(physics.peakKw[0]!, demandCharge);
   baseline.current = physics.peakCurrent[0]!;
   baseline.kva = physics.peakKva[0]!;
+  const capexRow = capexMemo(context, ratedPowerKw);
   let recommendedSlot = 0;
   let bestNpv = 0;
   for (let slot = 0; slot < OPTION_SLOTS; slot += 1) {
@@ -931,7 +941,7 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
       clearRow(columns, row);
       continue;
     }
-    const npv = optionMoney(context, slot, columns, row, ratedPowerKw, hasDriveToday);
+    const npv = optionMoney(context, capexRow, slot, columns, row, ratedPowerKw, hasDriveToday);
     // Recommendation: the highest NPV above zero (the first of equal ones).
     if (slot > 0 && npv > 0 && (recommendedSlot === 0 || npv > bestNpv)) {
       recommendedSlot = slot;
@@ -959,8 +969,16 @@ const baseline = { kwh: 0, cost: 0, current: 0, kva: 0 };
  * totals, rounded once into the columns at `row`.
  * @returns the rounded NPV [currency] (for the recommendation).
  */
-function optionMoney(context: AssessmentContext, slot: number, columns: FigureColumns, row: number, ratedPowerKw: number, hasDriveToday: boolean): number {
-  const { price, demandCharge, co2Factor, discountRate, escalation, lives } = context;
+function optionMoney(
+  context: AssessmentContext,
+  capexRow: Float64Array | null,
+  slot: number,
+  columns: FigureColumns,
+  row: number,
+  ratedPowerKw: number,
+  hasDriveToday: boolean,
+): number {
+  const { price, demandCharge, co2Factor, discountRate, escalation } = context;
   const option = OPTIONS[slot]!;
   const annualKwh = physics.annualKwh[slot]!;
   const peakCurrent = physics.peakCurrent[slot]!;
@@ -970,8 +988,8 @@ function optionMoney(context: AssessmentContext, slot: number, columns: FigureCo
   const annualCost = energyCost + demandCost;
   const savingsKwh = baseline.kwh - annualKwh;
   const savingsCost = baseline.cost - annualCost;
-  const capex = memoCapex(context, slot, option, ratedPowerKw, hasDriveToday);
-  const lifeYears = option.speedControl ? Math.min(lives[option.family], lives.vsd) : lives[option.family];
+  const capex = memoCapex(context, capexRow, slot, option, ratedPowerKw, hasDriveToday);
+  const lifeYears = context.lifeYearsBySlot[slot]!;
   // The savings series CF_t = S·(1+g)^(t−1) is used in closed form or summed on the fly, never built.
   checkSavingsCashFlows(capex, lifeYears, escalation);
   const isBaseline = slot === 0;
