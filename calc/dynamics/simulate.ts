@@ -698,8 +698,10 @@ class BldcSimulation implements SteppedRun<SimulationResult> {
         if (!this.crossed(j)) continue;
         const a = this.g0[j] as number;
         // The event just located lies at the end of this step by construction (locateEvent closed its
-        // bracket there). Its chord estimate can fall short when g jumps there, as a floating
-        // terminal does when a square back-EMF reverses, and would send the search back forever.
+        // bracket there). Its chord estimate can fall short, by more than the 1e-6 share below, when g
+        // jumps there (a floating terminal when a square back-EMF reverses) or when the step is a short
+        // substep (an event just after a PWM edge, where the tolerance is a large share of the step):
+        // the search would then locate the same end again until the guard stops the run.
         const tau = j === refined ? stepLength : a > 0 ? (stepLength * a) / (a - (this.g1[j] as number)) : 0;
         if (tau < earliestTau) {
           earliestTau = tau;
