@@ -185,10 +185,11 @@ function bracketedRate(cashFlows: ArrayLike<number>, tolerance: number): number 
 }
 
 /**
- * Rates closer than this [-] make the closed forms below ill-conditioned (1 − x^N cancels), so they
- * fall back to the year-by-year sums; so do present values at or above ESCALATING_CLOSED_FORM_MAX_AMOUNT.
+ * Largest rounding error [currency] the closed-form NPV may carry before it is summed year by year
+ * instead: 1e-4 of a cent, so its cents are those of the sum unless the sum lies within about that
+ * of a half cent. A fixed gap between the rates is not enough: the error grows with the amount too.
  */
-const CLOSED_FORM_MIN_RATE_GAP = 1e-6;
+const CLOSED_FORM_MAX_ERROR = 1e-6;
 /** Amount [currency] from which NPV is summed year by year (its cents stay those of the sum). */
 export const ESCALATING_CLOSED_FORM_MAX_AMOUNT = 1e7;
 
@@ -199,16 +200,23 @@ export const ESCALATING_CLOSED_FORM_MAX_AMOUNT = 1e7;
  * @param capex C [currency], ≥ 0; @param annualSavings S, first year [currency/a]
  * @param factor `escalatingSeriesFactor(N, i, g)`; @param escalation g [-] (the factor's)
  * @returns NPV = −C + S·(1 − ((1+g)/(1+i))^N)/(i − g), or −C + N·S/(1+i) when i = g [currency];
- *   equal to `netPresentValue(i, savingsCashFlows(...))` to about 1e-14 of the amounts. When i and g
- *   are closer than 1e-6 (but not equal) or the present value reaches 1e7, the year-by-year sum is
- *   returned instead, so the result keeps the sum's cents.
+ *   equal to `netPresentValue(i, savingsCashFlows(...))` to about 1e-14 of the amounts. Where the
+ *   closed form's rounding error may reach CLOSED_FORM_MAX_ERROR (i and g close for the amount: about
+ *   4ε·|PV|·(1+i)/|i − g|, or |PV|·|i − g|·N for the limit formula) or the present value reaches
+ *   1e7, the year-by-year sum is returned instead, so the result keeps the sum's cents.
  */
 export function netPresentValueOfEscalatingSavings(capex: number, annualSavings: number, factor: EscalatingSeriesFactor, escalation: number): number {
   if (!(factor.rate > -1)) throw new CalcInputError('discountRate', 'must be above -100 %');
-  if (factor.equalRates || Math.abs(factor.rateGap) >= CLOSED_FORM_MIN_RATE_GAP) {
-    const present = presentValueWithFactor(annualSavings, factor);
-    if (Math.abs(present) < ESCALATING_CLOSED_FORM_MAX_AMOUNT) return -capex + present;
-  }
+  const present = presentValueWithFactor(annualSavings, factor);
+  const magnitude = Math.abs(present);
+  const gap = Math.abs(factor.rateGap);
+  // x = (1+g)/(1+i) carries a few ulps that 1 − x^N does not cancel: an error of about
+  // 4ε·(1+i)/|i − g| of the present value when the rates are close; the limit formula used for
+  // i = g (within 1e-12) is off by about |i − g|·N/2 of it.
+  const wellConditioned = factor.equalRates
+    ? magnitude * gap * factor.years < CLOSED_FORM_MAX_ERROR
+    : 4 * Number.EPSILON * magnitude * (1 + factor.rate) < CLOSED_FORM_MAX_ERROR * gap;
+  if (wellConditioned && magnitude < ESCALATING_CLOSED_FORM_MAX_AMOUNT) return -capex + present;
   return netPresentValue(factor.rate, fillSavingsCashFlows(capex, annualSavings, factor.years, escalation));
 }
 
