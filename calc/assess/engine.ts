@@ -687,7 +687,7 @@ function resolvePoles(motor: MotorInput, frequencyHz: number, summary: MotorSumm
 /** Loss splits of the induction options of one motor by slot (module scratch). */
 const familySplits: (LossSplit | null)[] = new Array<LossSplit | null>(OPTION_SLOTS).fill(null);
 
-/** Rated efficiency [-] and its source by induction option family (sources only when recording). */
+/** Rated efficiency [-] of each induction option family for the motor being assessed (module scratch). */
 const inductionEfficiency = { keep: 0, rewind: 0, ie3: 0, ie4: 0, ie5: 0 };
 
 /**

@@ -7,7 +7,7 @@
  * once per batch.
  */
 import { CalcInputError } from '../errors.js';
-import { OPTION_SLOTS, assessMotorInto, assessmentContext, figureColumns, motorSummary, type FigureColumns } from './engine.js';
+import { OPTION_SLOTS, assessMotorInto, assessmentContext, figureColumns, motorSummary, type AssessmentContext, type FigureColumns, type MotorSummary } from './engine.js';
 import { OPTION_CODES, type OptionCode } from './options.js';
 import type { AssumptionsInput, MotorInput, PriceBookInput, SiteInput } from './schema.js';
 
@@ -97,7 +97,7 @@ export function screenMotors(motors: readonly MotorInput[], site: SiteInput, pri
 }
 
 /** One motor into the columns; its input error, or null. */
-function screenOne(motor: MotorInput, context: ReturnType<typeof assessmentContext>, figures: FigureColumns, firstRow: number, summary: ReturnType<typeof motorSummary>): CalcInputError | null {
+function screenOne(motor: MotorInput, context: AssessmentContext, figures: FigureColumns, firstRow: number, summary: MotorSummary): CalcInputError | null {
   try {
     assessMotorInto(motor, context, figures, firstRow, summary, null);
     return null;

@@ -60,14 +60,15 @@ export function checkSavingsCashFlows(capex: number, years: number, escalation: 
 const scratchFlows: Float64Array[] = [];
 
 /**
- * The cash flows of `savingsCashFlows` written into a reused buffer instead of a new array, for loops
- * that assess many options: same values, bit for bit; the buffer is overwritten by the next call.
+ * The cash flows of `savingsCashFlows` written into a reused buffer instead of a new array, for the
+ * year-by-year fallbacks of the closed forms below: same values, bit for bit; the buffer is
+ * overwritten by the next call, so it stays private to this module.
  *
  * @param capex [currency], ≥ 0; @param annualSavings first-year saving [currency/a]
  * @param years N [a], integer 1–100; @param escalation g [-]
  * @returns a Float64Array of length N + 1 holding [−capex, S, S·(1+g), …] [currency], valid until the next call.
  */
-export function fillSavingsCashFlows(capex: number, annualSavings: number, years: number, escalation: number): Float64Array {
+function fillSavingsCashFlows(capex: number, annualSavings: number, years: number, escalation: number): Float64Array {
   checkSavingsCashFlows(capex, years, escalation);
   let flows = scratchFlows[years];
   if (flows === undefined) {
@@ -191,7 +192,7 @@ function bracketedRate(cashFlows: ArrayLike<number>, tolerance: number): number 
  */
 const CLOSED_FORM_MAX_ERROR = 1e-6;
 /** Amount [currency] from which NPV is summed year by year (its cents stay those of the sum). */
-export const ESCALATING_CLOSED_FORM_MAX_AMOUNT = 1e7;
+const ESCALATING_CLOSED_FORM_MAX_AMOUNT = 1e7;
 
 /**
  * Net present value of `savingsCashFlows(capex, annualSavings, N, g)` in closed form (geometric-
