@@ -183,6 +183,36 @@ describe('screenMotors', () => {
     expect(screening.figures.annualKwh[2 * OPTION_SLOTS]).toBe(assess(good, site).baseline.annualKwh);
   });
 
+  it('leaves a bad motor all NaN and its neighbours as if it were not in the batch (common practice, no source)', () => {
+    const site: SiteInput = { voltageV: 400, frequencyHz: 50, energyPricePerKwh: 0.14 };
+    const fan: MotorInput = { ratedPowerKw: 45, poles: 4, efficiencyClass: 'IE1', application: 'fan', controlMethod: 'outlet-damper', dutyProfile: [{ fraction: 0.6, hours: 3000 }, { fraction: 0.9, hours: 2000 }] };
+    const pump: MotorInput = { ratedPowerKw: 7.5, poles: 2, efficiencyClass: 'IE2', application: 'pump', controlMethod: 'throttle-valve', hoursPerYear: 6000 };
+    // Fails in its last bin, after the first bins' operating points are written to the core's scratch.
+    const bad: MotorInput = { ...fan, loadFactor: 1.2, dutyProfile: [{ fraction: 0.5, hours: 100 }, { fraction: 1.1, hours: 100 }] };
+    const alone = screenMotors([fan, pump], site);
+    const mixed = screenMotors([fan, bad, pump], site);
+    expect(mixed.errors.map((entry) => entry.field)).toEqual(['motors.1.dutyProfile.1.fraction']);
+    for (const figure of OPTION_FIGURES) {
+      const column = mixed.figures[figure];
+      expect(Array.from(column.subarray(OPTION_SLOTS, 2 * OPTION_SLOTS)).every(Number.isNaN)).toBe(true);
+      expect(Array.from(column.subarray(0, OPTION_SLOTS))).toEqual(Array.from(alone.figures[figure].subarray(0, OPTION_SLOTS)));
+      expect(Array.from(column.subarray(2 * OPTION_SLOTS))).toEqual(Array.from(alone.figures[figure].subarray(OPTION_SLOTS)));
+    }
+  });
+
+  it('shares no state between calls: assess gives the same JSON before and after a failed motor and a screening, and a held result does not change', () => {
+    const site: SiteInput = { voltageV: 400, frequencyHz: 50, energyPricePerKwh: 0.14, demandChargePerKwMonth: 9 };
+    const fan: MotorInput = { ratedPowerKw: 45, poles: 4, efficiencyClass: 'IE1', application: 'fan', controlMethod: 'inlet-vanes', dutyProfile: [{ fraction: 0.4, hours: 2000 }, { fraction: 0.8, hours: 3000 }, { fraction: 1, hours: 500 }] };
+    const held = assess(fan, site);
+    const first = JSON.stringify(held);
+    const other: MotorInput = { ratedPowerKw: 200, poles: 2, efficiencyClass: 'IE3', hoursPerYear: 8000, bldcCurve: { source: 'test', ratedPowerKw: 200, points: [{ loadFraction: 0.5, efficiency: 0.95, powerFactor: 0.9 }, { loadFraction: 1, efficiency: 0.96, powerFactor: 0.95 }] } };
+    expect(() => assess({ ...fan, dutyProfile: [{ fraction: 0.5, hours: 100 }, { fraction: 2, hours: 100 }] }, site)).toThrow(CalcInputError);
+    screenMotors([other, fan, { ...other, ratedPowerKw: 0 }], site, undefined, { discountRatePct: 3, energyEscalationPct: 3 });
+    assess(other, site, undefined, { lifeYears: { ie3: 7 } }, { detail: 'totals' });
+    expect(JSON.stringify(assess(fan, site))).toBe(first);
+    expect(JSON.stringify(held)).toBe(first);
+  });
+
   it('throws a site error once, naming the field as assess does', () => {
     expect(() => screenMotors([{ ratedPowerKw: 11, poles: 4 }], { voltageV: 400, frequencyHz: 50 })).toThrow('"energyPricePerKwh" is required unless timeOfUse is given');
     expect(() => screenMotors([], { voltageV: 400, frequencyHz: 50, energyPricePerKwh: 0.1, currency: 'EUR' }, { currency: 'USD' })).toThrow('"priceBook.currency" must equal site.currency (EUR)');
