@@ -574,6 +574,33 @@ const model: OptionModel = {
   driveFullLoadLossKw: 0,
 };
 
+/** `model` for the BLDC option: a given curve (motor and drive together), else the PM loss split and its drive. */
+function setBldcModel(ratedEfficiency: number, split: LossSplit | null, curve: PartLoadCurve | null, driveClass: DriveClass | null, driveLossKw: number): void {
+  model.ratedEfficiency = ratedEfficiency;
+  model.split = split;
+  model.curve = curve;
+  model.fullLoadReactiveKvar = 0;
+  model.noLoadCurrentShare = 0;
+  model.isPermanentMagnet = true;
+  model.driveClass = driveClass;
+  model.driveFullLoadLossKw = driveLossKw;
+}
+
+/**
+ * `model` for an induction option of rated efficiency η [-] at today's rated power factor: full-load
+ * reactive power Q_FL = (P/η)·tan φ [kvar], no-load current share m·sin φ [-], and its drive, if any.
+ */
+function setInductionModel(efficiency: number, split: LossSplit, driveClass: DriveClass | null, ratedPowerKw: number, ratedPowerFactor: number, sinPhi: number): void {
+  model.ratedEfficiency = efficiency;
+  model.split = split;
+  model.curve = null;
+  model.fullLoadReactiveKvar = (ratedPowerKw / efficiency) * (sinPhi / ratedPowerFactor);
+  model.noLoadCurrentShare = INDUCTION_MAGNETISING_REACTIVE_SHARE * sinPhi;
+  model.isPermanentMagnet = false;
+  model.driveClass = driveClass;
+  model.driveFullLoadLossKw = driveClass ? driveFullLoadLossKw(ratedPowerKw, driveClass) : 0;
+}
+
 /** Raw (unrounded) physics totals of the options of one motor, by slot (module scratch). */
 const physics = {
   annualKwh: new Float64Array(OPTION_SLOTS),
@@ -727,24 +754,7 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   // Today's motor: rated efficiency.
   const rewinds = motor.rewinds ?? 0;
   if (!Number.isInteger(rewinds) || rewinds < 0 || rewinds > 10) throw new CalcInputError('motor.rewinds', 'must be a whole number from 0 to 10');
-  let original: ClassEfficiency;
-  const efficiencyClass = motor.efficiencyClass ?? 'unknown';
-  if (motor.nameplateEfficiencyPct !== undefined) {
-    requireInRange('motor.nameplateEfficiencyPct', motor.nameplateEfficiencyPct, 1, 99.9);
-    original = { efficiencyPct: motor.nameplateEfficiencyPct, source: 'nameplate efficiency (wins over the class value)' };
-  } else if (efficiencyClass === 'unknown') {
-    if (motor.yearInstalled !== undefined && motor.yearInstalled >= CLASS_REGIME_START_YEAR) {
-      const ie2 = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE2');
-      original = { efficiencyPct: ie2.efficiencyPct, source: used === null ? '' : `unknown class, installed ${motor.yearInstalled} ≥ ${CLASS_REGIME_START_YEAR}: IE2 minimum assumed; ${ie2.source}` };
-    } else {
-      const lossFactor = assumptions?.unknownClassLossFactor;
-      original = lossFactor === undefined ? memoUnknownClassEfficiency(ratedPowerKw, poles, frequencyHz) : unknownClassEfficiency(ratedPowerKw, poles, frequencyHz, lossFactor);
-    }
-  } else if (efficiencyClass === 'IE1' || efficiencyClass === 'IE2' || efficiencyClass === 'IE3' || efficiencyClass === 'IE4' || efficiencyClass === 'IE5') {
-    original = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, efficiencyClass);
-  } else {
-    throw new CalcInputError('motor.efficiencyClass', 'must be one of IE1, IE2, IE3, IE4, IE5, unknown');
-  }
+  const original = originalEfficiency(motor, assumptions, poles, frequencyHz, used !== null);
   const baseEfficiency = rewoundEfficiency(original.efficiencyPct / 100, rewinds, rewindPenalty);
   if (used !== null) {
     used.push({ what: "today's rated efficiency before rewinds [%]", value: original.efficiencyPct, source: original.source });
@@ -754,18 +764,7 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   }
 
   // Power factor of the induction motors at rated load.
-  let ratedPowerFactor: number;
-  if (motor.powerFactor !== undefined) {
-    requireInRange('motor.powerFactor', motor.powerFactor, 0.05, 1);
-    ratedPowerFactor = motor.powerFactor;
-    if (used !== null) used.push({ what: 'rated power factor', value: ratedPowerFactor, source: 'nameplate' });
-  } else if (motor.ratedCurrentA !== undefined && motor.voltageV !== undefined) {
-    ratedPowerFactor = powerFactorFromNameplate(ratedPowerKw, original.efficiencyPct / 100, motor.voltageV, motor.ratedCurrentA);
-    if (used !== null) used.push({ what: 'rated power factor', value: round(ratedPowerFactor, 3), source: 'from nameplate power, efficiency, voltage and current: P/η/(√3·V·I)' });
-  } else {
-    ratedPowerFactor = typicalRatedPowerFactor(ratedPowerKw, poles);
-    if (used !== null) used.push({ what: 'rated power factor', value: ratedPowerFactor, source: 'typical value for the rating and poles (common practice, values from memory)' });
-  }
+  const ratedPowerFactor = ratedInductionPowerFactor(motor, original, poles, used);
   if (used !== null) used.push({ what: 'rated power factor of new induction motors', value: round(ratedPowerFactor, 3), source: "same as today's motor (assumption)" });
 
   // Load: duty profile or one bin.
@@ -887,28 +886,13 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
     const option = OPTIONS[slot]!;
     if (option.speedControl && !speedControl) continue;
     if (option.family === 'bldc') {
-      model.ratedEfficiency = bldcRatedEfficiency;
-      model.split = bldcSplit;
-      model.curve = bldcCurve;
-      model.fullLoadReactiveKvar = 0;
-      model.noLoadCurrentShare = 0;
-      model.isPermanentMagnet = true;
-      model.driveClass = bldcCurve ? null : newDriveClass;
-      model.driveFullLoadLossKw = bldcDriveLossKw;
+      setBldcModel(bldcRatedEfficiency, bldcSplit, bldcCurve, bldcCurve ? null : newDriveClass, bldcDriveLossKw);
     } else {
       const efficiency = inductionEfficiency[option.family];
-      const driveClass = option.speedControl ? newDriveClass : todayDrive;
-      model.ratedEfficiency = efficiency;
       // A family's split serves its speed-control variant too (slot − 6): same rating, same efficiency.
       const split = option.speedControl ? familySplits[slot - OPTION_SLOTS / 2]! : lossSplit(ratedPowerKw, efficiency, INDUCTION_CONSTANT_LOSS_SHARE);
       familySplits[slot] = split;
-      model.split = split;
-      model.curve = null;
-      model.fullLoadReactiveKvar = (ratedPowerKw / efficiency) * (sinPhi / ratedPowerFactor);
-      model.noLoadCurrentShare = INDUCTION_MAGNETISING_REACTIVE_SHARE * sinPhi;
-      model.isPermanentMagnet = false;
-      model.driveClass = driveClass;
-      model.driveFullLoadLossKw = driveClass ? driveFullLoadLossKw(ratedPowerKw, driveClass) : 0;
+      setInductionModel(efficiency, split, option.speedControl ? newDriveClass : todayDrive, ratedPowerKw, ratedPowerFactor, sinPhi);
     }
     let bins: BinResult[] | null = null;
     if (recording !== null) {
@@ -959,6 +943,55 @@ export function assessMotorInto(motor: MotorInput, context: AssessmentContext, c
   summary.annualHours = annualHours;
   summary.speedControl = speedControl;
   summary.recommendedSlot = recommendedSlot;
+}
+
+/**
+ * Today's motor's rated efficiency before rewinds: the nameplate's, else its class's; an unknown class
+ * is IE2 for a motor installed under the class regime, else the below-IE1 default.
+ * @param record when false the IE2 source text is left empty (it is only read when recording)
+ * @returns the efficiency [%] and its source.
+ */
+function originalEfficiency(motor: MotorInput, assumptions: AssumptionsInput | undefined, poles: Poles, frequencyHz: 50 | 60, record: boolean): ClassEfficiency {
+  const ratedPowerKw = motor.ratedPowerKw;
+  const efficiencyClass = motor.efficiencyClass ?? 'unknown';
+  if (motor.nameplateEfficiencyPct !== undefined) {
+    requireInRange('motor.nameplateEfficiencyPct', motor.nameplateEfficiencyPct, 1, 99.9);
+    return { efficiencyPct: motor.nameplateEfficiencyPct, source: 'nameplate efficiency (wins over the class value)' };
+  }
+  if (efficiencyClass === 'unknown') {
+    if (motor.yearInstalled !== undefined && motor.yearInstalled >= CLASS_REGIME_START_YEAR) {
+      const ie2 = memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, 'IE2');
+      return { efficiencyPct: ie2.efficiencyPct, source: record ? `unknown class, installed ${motor.yearInstalled} ≥ ${CLASS_REGIME_START_YEAR}: IE2 minimum assumed; ${ie2.source}` : '' };
+    }
+    const lossFactor = assumptions?.unknownClassLossFactor;
+    return lossFactor === undefined ? memoUnknownClassEfficiency(ratedPowerKw, poles, frequencyHz) : unknownClassEfficiency(ratedPowerKw, poles, frequencyHz, lossFactor);
+  }
+  if (efficiencyClass === 'IE1' || efficiencyClass === 'IE2' || efficiencyClass === 'IE3' || efficiencyClass === 'IE4' || efficiencyClass === 'IE5') {
+    return memoIecClassEfficiency(ratedPowerKw, poles, frequencyHz, efficiencyClass);
+  }
+  throw new CalcInputError('motor.efficiencyClass', 'must be one of IE1, IE2, IE3, IE4, IE5, unknown');
+}
+
+/**
+ * Rated power factor of today's induction motor, which the new induction motors keep: the
+ * nameplate's, else from nameplate power, efficiency, voltage and current, else the typical value.
+ * @param original today's rated efficiency before rewinds; @param used the assumption list, or null
+ * @returns the power factor [-].
+ */
+function ratedInductionPowerFactor(motor: MotorInput, original: ClassEfficiency, poles: Poles, used: Assumption[] | null): number {
+  if (motor.powerFactor !== undefined) {
+    requireInRange('motor.powerFactor', motor.powerFactor, 0.05, 1);
+    if (used !== null) used.push({ what: 'rated power factor', value: motor.powerFactor, source: 'nameplate' });
+    return motor.powerFactor;
+  }
+  if (motor.ratedCurrentA !== undefined && motor.voltageV !== undefined) {
+    const powerFactor = powerFactorFromNameplate(motor.ratedPowerKw, original.efficiencyPct / 100, motor.voltageV, motor.ratedCurrentA);
+    if (used !== null) used.push({ what: 'rated power factor', value: round(powerFactor, 3), source: 'from nameplate power, efficiency, voltage and current: P/η/(√3·V·I)' });
+    return powerFactor;
+  }
+  const powerFactor = typicalRatedPowerFactor(motor.ratedPowerKw, poles);
+  if (used !== null) used.push({ what: 'rated power factor', value: powerFactor, source: 'typical value for the rating and poles (common practice, values from memory)' });
+  return powerFactor;
 }
 
 /** The baseline's raw figures the options' savings are measured from (module scratch, one motor at a time). */
