@@ -26,6 +26,7 @@ import { fileURLToPath } from 'node:url';
 import { assess, type AssessOptions } from '../../calc/assess/assess.js';
 import { OPTION_SLOTS, screenMotors } from '../../calc/assess/screen.js';
 import type { MotorInput, SiteInput } from '../../calc/assess/schema.js';
+import { seededRandom } from '../support/random.js';
 
 const MOTORS = Number(process.env.BENCH_MOTORS ?? 100_000);
 const GOAL = 50_000;
@@ -33,18 +34,6 @@ const RATINGS = [0.37, 0.75, 1.5, 3, 5.5, 7.5, 11, 15, 22, 37, 55, 75, 110, 160,
 const APPLICATIONS = ['fan', 'pump', 'compressor', 'conveyor'] as const;
 const CONTROLS = ['direct-on-line', 'throttle-valve', 'outlet-damper', 'inlet-vanes'] as const;
 const CLASSES = ['IE1', 'IE2', 'IE3', 'unknown'] as const;
-
-/** mulberry32: a small seeded generator, so the benchmark is repeatable. */
-function generator(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function pick<T>(random: () => number, list: readonly T[]): T {
   return list[Math.floor(random() * list.length)]!;
@@ -105,10 +94,10 @@ function runMode(mode: Mode): void {
   const detail = mode === 'full' ? 'full' : 'totals';
   const options: AssessOptions = { detail };
   const loadAtStart = loadavg();
-  const random = generator(20261201);
+  const random = seededRandom(20261201);
   // Warm up the JIT on one chunk, outside the timing.
   assessChunk(
-    Array.from({ length: CHUNK }, (_, index) => makeMotor(generator(1), index)),
+    Array.from({ length: CHUNK }, (_, index) => makeMotor(seededRandom(1), index)),
     mode,
     options,
     { options: 0, bins: 0, checksum: 0 },

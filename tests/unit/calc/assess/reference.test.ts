@@ -23,23 +23,12 @@ import {
 } from '../../../../calc/economics/cash-flows.js';
 import { roundMoney } from '../../../../calc/economics/money.js';
 import { DEFAULT_PRICE_BOOK, installationCost, itemCost } from '../../../../calc/economics/price-book.js';
+import { seededRandom } from '../../../support/random.js';
 
 const site: SiteInput = { voltageV: 400, frequencyHz: 50, energyPricePerKwh: 0.14, demandChargePerKwMonth: 6, currency: 'EUR', co2KgPerKwh: 0.35 };
 
-/** mulberry32, seeded: the same motors every run. */
-function generator(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 function motors(count: number): MotorInput[] {
-  const random = generator(7);
+  const random = seededRandom(7);
   const pick = <T>(list: readonly T[]): T => list[Math.floor(random() * list.length)]!;
   return Array.from({ length: count }, () => {
     const application = pick(['fan', 'pump', 'compressor', 'conveyor'] as const);

@@ -11,6 +11,7 @@ import { assess, type OptionResult } from '../../../../calc/assess/assess.js';
 import { OPTION_FIGURES, OPTION_SLOTS, screenMotors } from '../../../../calc/assess/screen.js';
 import { CalcInputError } from '../../../../calc/errors.js';
 import type { AssumptionsInput, MotorInput, PriceBookInput, SiteInput } from '../../../../calc/assess/schema.js';
+import { seededRandom } from '../../../support/random.js';
 
 interface Case {
   motor: MotorInput;
@@ -19,22 +20,10 @@ interface Case {
   assumptions?: AssumptionsInput;
 }
 
-/** mulberry32, seeded: the same cases every run. */
-function generator(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 /* eslint-disable @typescript-eslint/no-explicit-any */
 /** Varied random motors, sites, price books and assumptions; some break a rule on purpose. */
 function cases(count: number, seed: number): Case[] {
-  const r = generator(seed);
+  const r = seededRandom(seed);
   const pick = <T>(l: readonly T[]): T => l[Math.floor(r() * l.length)]!;
   const maybe = (p: number) => r() < p;
   const out: any[] = [];

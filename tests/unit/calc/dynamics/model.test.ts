@@ -19,18 +19,7 @@ import {
   trapezoidShape,
   type BldcModelConfig,
 } from '../../../../calc/dynamics/model.js';
-
-/** A seeded generator (mulberry32), so every run checks the same states. */
-function generator(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '../../../support/random.js';
 
 function config(options: { flatTopDeg: number; rectifier: boolean; legFactor: number[]; closed: number[]; quadratic: boolean }): BldcModelConfig {
   const { state } = createLoadState(options.quadratic ? { kind: 'quadratic', torqueNm: 2, atSpeedRpm: 3000 } : { kind: 'constant', torqueNm: 1.5 }, undefined);
@@ -85,7 +74,7 @@ function randomState(random: () => number, legs: (typeof LEG_STATES)[number]): F
 
 describe('BldcModel.rk4Step (the simulation inner step)', () => {
   it('gives the generic RK4 step of the same derivative bit for bit: state, derivative and auxiliary outputs', () => {
-    const random = generator(20261202);
+    const random = seededRandom(20261202);
     let checked = 0;
     for (const legs of LEG_STATES) {
       for (const rectifier of [false, true]) {
@@ -135,7 +124,7 @@ describe('BldcModel.rk4Step (the simulation inner step)', () => {
   it('chained in its fields (startFrom, stepAhead, acceptStep) gives rk4Step bit for bit, with the floating terminal and the torque', () => {
     // What the simulation does between switching events must be exactly the step it takes otherwise
     // (common practice, no source: the two are the same arithmetic, so any difference is a mistake).
-    const random = generator(7);
+    const random = seededRandom(7);
     for (const legs of LEG_STATES) {
       // The last case starts a square-EMF motor without current at standstill just below zero angle: its
       // constant load holds the shaft there for the first steps, where phase a's position in its period

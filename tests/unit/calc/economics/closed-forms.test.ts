@@ -18,21 +18,11 @@ import {
   savingsCashFlows,
 } from '../../../../calc/economics/cash-flows.js';
 import { roundMoney } from '../../../../calc/economics/money.js';
-
-/** A small seeded generator, so the random cases are the same on every run. */
-function generator(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = Math.imul(state ^ (state >>> 15), state | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '../../../support/random.js';
 
 /** Random investments over the ranges the assessment allows (rates −50…100 %/a, escalation −20…50 %/a, lives 1–50 a). */
 function investments(count: number, seed: number) {
-  const random = generator(seed);
+  const random = seededRandom(seed);
   const pick = <T>(list: readonly T[]): T => list[Math.floor(random() * list.length)]!;
   return Array.from({ length: count }, () => {
     const capex = random() < 0.05 ? 0 : Math.round(random() * 10 ** (2 + random() * 4) * 100) / 100;
@@ -58,7 +48,7 @@ describe('closed-form economics of an escalating savings series', () => {
   it('keeps the cents of the year-by-year sum where the rates are close but not equal and the amounts large (cancellation in 1 − x^N; common practice, no source)', () => {
     // Discount rate and escalation 1e-6 to 1e-3 apart, present values of 1e5 to 1e7: the closed form
     // loses about ε/|i − g| of the present value here, up to a tenth of a cent.
-    const random = generator(16);
+    const random = seededRandom(16);
     const wrong: string[] = [];
     for (let run = 0; run < 20000; run += 1) {
       const escalation = -0.2 + random() * 0.7;
@@ -78,7 +68,7 @@ describe('closed-form economics of an escalating savings series', () => {
   });
 
   it('agrees with the `financial` package npv (numpy-financial convention, CF_0 undiscounted) to 1e-6', () => {
-    const random = generator(12);
+    const random = seededRandom(12);
     for (let run = 0; run < 300; run += 1) {
       const capex = 1000 + random() * 100000;
       const savings = capex * (0.05 + random() * 0.6);
@@ -112,7 +102,7 @@ describe('closed-form economics of an escalating savings series', () => {
   });
 
   it('agrees with the `financial` package irr on conventional investments to 1e-8 (where that package converges)', () => {
-    const random = generator(15);
+    const random = seededRandom(15);
     let compared = 0;
     for (let run = 0; run < 300; run += 1) {
       const capex = 1000 + random() * 100000;

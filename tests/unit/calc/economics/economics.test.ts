@@ -14,17 +14,7 @@ import {
 import { roundMoney, sumMoney } from '../../../../calc/economics/money.js';
 import { annualDemandCost, effectiveEnergyPrice } from '../../../../calc/economics/tariff.js';
 import { DEFAULT_PRICE_BOOK, itemCost, rebateAmount } from '../../../../calc/economics/price-book.js';
-
-/** A small seeded generator, so the random cases are the same on every run. */
-function generator(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = Math.imul(state ^ (state >>> 15), state | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '../../../support/random.js';
 
 describe('NPV, IRR and payback', () => {
   it('finds the numpy-financial documentation IRR: irr([−250000, 100000, 150000, 200000, 250000, 300000]) = 0.5672303344358536 (REFERENCES.md section 8)', () => {
@@ -32,7 +22,7 @@ describe('NPV, IRR and payback', () => {
   });
 
   it('agrees with the `financial` npm package (a port of numpy-financial) on NPV and IRR of random investments', () => {
-    const random = generator(7);
+    const random = seededRandom(7);
     for (let run = 0; run < 200; run += 1) {
       const capex = 1000 + random() * 100000;
       const saving = capex * (0.05 + random() * 0.6);
@@ -105,7 +95,7 @@ describe('money', () => {
   });
 
   it('gives, in floating point, the same NPV to the cent as an exact decimal.js computation (the measured choice of calc/README.md)', () => {
-    const random = generator(11);
+    const random = seededRandom(11);
     for (let run = 0; run < 500; run += 1) {
       const capex = Math.round(random() * 2_000_000) / 100;
       const saving = Math.round(random() * 500_000) / 100;
