@@ -506,14 +506,7 @@ class PointColumns {
 }
 
 /** The figures of a BinResult that every option shares. */
-interface SharedBinFigures {
-  fraction: number;
-  hours: number;
-  runHours: number;
-  shaftKw: number;
-  loadFraction: number;
-  speedFraction: number;
-}
+type SharedBinFigures = Pick<BinResult, 'fraction' | 'hours' | 'runHours' | 'shaftKw' | 'loadFraction' | 'speedFraction'>;
 
 const todayPoints = new PointColumns();
 const speedPoints = new PointColumns();
