@@ -48,23 +48,22 @@ function zip(parts: Record<string, string>): Buffer {
     const data = Buffer.from(text, 'utf8');
     const packed = deflateRawSync(data);
     const nameBytes = Buffer.from(name);
+    // The 26 bytes a local header (at 4) and its central-directory entry (at 6) share: version needed,
+    // flags, method, time, date, CRC-32, compressed and plain sizes, name length, extra length.
+    const shared = Buffer.alloc(26);
+    shared.writeUInt16LE(20, 0);
+    shared.writeUInt16LE(8, 4);
+    shared.writeUInt32LE(crc32(data), 10);
+    shared.writeUInt32LE(packed.length, 14);
+    shared.writeUInt32LE(data.length, 18);
+    shared.writeUInt16LE(nameBytes.length, 22);
     const local = Buffer.alloc(30);
     local.writeUInt32LE(0x04034b50, 0);
-    local.writeUInt16LE(20, 4);
-    local.writeUInt16LE(8, 8);
-    local.writeUInt32LE(crc32(data), 14);
-    local.writeUInt32LE(packed.length, 18);
-    local.writeUInt32LE(data.length, 22);
-    local.writeUInt16LE(nameBytes.length, 26);
+    shared.copy(local, 4);
     const entry = Buffer.alloc(46);
     entry.writeUInt32LE(0x02014b50, 0);
     entry.writeUInt16LE(20, 4);
-    entry.writeUInt16LE(20, 6);
-    entry.writeUInt16LE(8, 10);
-    entry.writeUInt32LE(crc32(data), 16);
-    entry.writeUInt32LE(packed.length, 20);
-    entry.writeUInt32LE(data.length, 24);
-    entry.writeUInt16LE(nameBytes.length, 28);
+    shared.copy(entry, 6);
     entry.writeUInt32LE(offset, 42);
     locals.push(local, nameBytes, packed);
     central.push(entry, nameBytes);
