@@ -14,11 +14,10 @@ import {
   round2,
   type Assumption,
   type BinResult,
+  type MotorSummary,
   type Recording,
 } from './engine.js';
 import { OPTIONS, type OptionCode } from './options.js';
-import type { Application, ControlMethod } from '../loads/fans-pumps.js';
-import type { Poles } from '../efficiency/classes.js';
 import type { AssumptionsInput, MotorInput, PriceBookInput, SiteInput } from './schema.js';
 
 export type { Assumption, BinResult } from './engine.js';
@@ -63,19 +62,11 @@ export interface OptionResult {
 
 export interface AssessResult {
   currency: string | null;
-  motor: {
-    tag: string | null;
-    ratedPowerKw: number;
-    poles: Poles;
-    frequencyHz: 50 | 60;
-    voltageV: number;
-    application: Application;
-    controlMethod: ControlMethod;
-    /** Rated efficiency used for today's motor, rewinds included [%]. */
-    efficiencyPct: number;
-    powerFactor: number;
-    annualHours: number;
-  };
+  /** The motor as assessed: its tag and rating, and what the core resolved (MotorSummary's fields). */
+  motor: { tag: string | null; ratedPowerKw: number } & Pick<
+    MotorSummary,
+    'poles' | 'frequencyHz' | 'voltageV' | 'application' | 'controlMethod' | 'efficiencyPct' | 'powerFactor' | 'annualHours'
+  >;
   baseline: OptionResult;
   options: OptionResult[];
   recommended: { code: OptionCode; reason: string };
