@@ -353,8 +353,6 @@ export interface AssessmentContext {
   capexByRating: Map<number, Float64Array> | null;
   /** Life of each option slot [a]: its family's, or the shorter of it and the drive's for a speed-control option. */
   lifeYearsBySlot: number[];
-  /** Life factors by option slot, filled on first use. */
-  lifeBySlot: (LifeFactors | undefined)[] | null;
 }
 
 /** Ratings the capex memo of a batch holds before it starts again [-]. */
@@ -390,8 +388,7 @@ function memoCapex(context: AssessmentContext, byRating: Float64Array | null, sl
  * @param site the site (SiteInput); @param priceBook optional, missing parts from DEFAULT_PRICE_BOOK
  * @param assumptions optional overrides of calc/assess/defaults.ts
  * @param record when true, the site-level assumption entries are built too
- * @param batch when true, capex is memoised by rating and life factors by slot (worth it over many
- *   motors, not for one)
+ * @param batch when true, capex is memoised by rating (worth it over many motors, not for one)
  * @returns the context; an invalid tariff or price-book currency is kept in `error`, not thrown.
  */
 export function assessmentContext(site: SiteInput, priceBook: PriceBookInput | undefined, assumptions: AssumptionsInput | undefined, record: boolean, batch: boolean): AssessmentContext {
@@ -450,7 +447,6 @@ export function assessmentContext(site: SiteInput, priceBook: PriceBookInput | u
     entries,
     capexByRating: batch ? new Map() : null,
     lifeYearsBySlot: OPTIONS.map((option) => (option.speedControl ? Math.min(lives[option.family], lives.vsd) : lives[option.family])),
-    lifeBySlot: batch ? [] : null,
   };
 }
 
@@ -1019,11 +1015,7 @@ function optionMoney(
   // The savings series CF_t = S·(1+g)^(t−1) is used in closed form or summed on the fly, never built.
   checkSavingsCashFlows(capex, lifeYears, escalation);
   const isBaseline = slot === 0;
-  let life = context.lifeBySlot === null ? undefined : context.lifeBySlot[slot];
-  if (life === undefined) {
-    life = lifeFactors(lifeYears, discountRate, escalation);
-    if (context.lifeBySlot !== null) context.lifeBySlot[slot] = life;
-  }
+  const life = lifeFactors(lifeYears, discountRate, escalation);
   const lcc = capex + presentValueWithFactor(annualCost, life.series); // lifeCycleCost, with the power computed once per life
   columns.ratedEfficiencyPct[row] = round2(physics.ratedEfficiency[slot]! * 100);
   columns.lifeYears[row] = lifeYears;
