@@ -15,10 +15,15 @@
  * Out: { ok: true, sheetName, rows: [[rowNumber, cells[]], ...], sheetRows } or { ok: false, code, message }.
  */
 import { parentPort, workerData } from 'node:worker_threads';
-import { readPlainXlsx, xlsxReadOptions, zipDirectory } from './xlsx-fast.mjs';
+import { PartTooLargeError, readPlainXlsx, xlsxReadOptions, zipDirectory } from './xlsx-fast.mjs';
 
 /** xlsx, loaded only when a file needs it (loading it takes 0.4 s; a plain .xlsx does not). */
 let XLSX;
+
+/** A part of the workbook in the user's words. */
+function partWords(name) {
+  return /sharedStrings/i.test(name) ? 'its shared-strings table' : name || 'its contents';
+}
 
 function refuse(code, message) {
   parentPort.postMessage({ ok: false, code, message });
@@ -52,7 +57,7 @@ async function run() {
     const total = entries.reduce((sum, entry) => sum + entry.size, 0);
     const largest = entries.reduce((big, entry) => (entry.size > big.size ? entry : big), { name: '', size: 0 });
     if (total > limits.maxExpandedBytes || largest.size > limits.maxPartBytes) {
-      const what = /sharedStrings/i.test(largest.name) ? 'its shared-strings table' : largest.name || 'its contents';
+      const what = partWords(largest.name);
       return refuse(
         'too-large',
         `The workbook expands to ${Math.round(total / 1048576)} MB (${what}: ${Math.round(largest.size / 1048576)} MB); at most ${Math.round(limits.maxPartBytes / 1048576)} MB per part can be imported. Save only the motor list, or split it.`,
@@ -64,7 +69,11 @@ async function run() {
   if (kind === 'zip') {
     try {
       sheet = readPlainXlsx(bytes, { sheetRows: sheetRowsLimit, maxPartBytes: limits.maxPartBytes });
-    } catch {
+    } catch (error) {
+      if (error instanceof PartTooLargeError) {
+        const limit = Math.round(limits.maxPartBytes / 1048576);
+        return refuse('too-large', `The workbook expands to more than its ZIP directory declares (${partWords(error.part)}: over ${limit} MB); at most ${limit} MB per part can be imported. Save only the motor list, or split it.`);
+      }
       sheet = undefined; // xlsx reads it below, and says what is wrong with it
     }
   }

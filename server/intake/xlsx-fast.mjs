@@ -77,6 +77,18 @@ function zipEntries(bytes) {
   return new Map(directory.entries.map((entry) => [entry.name, entry]));
 }
 
+/**
+ * A part inflates past the limit although its declared size passed the worker's check: the archive
+ * misstates it, and the worker must refuse the file rather than hand it to xlsx, which inflates
+ * without a limit.
+ */
+export class PartTooLargeError extends RangeError {
+  constructor(part, maxBytes) {
+    super(`${part} expands beyond ${maxBytes} bytes`);
+    this.part = part;
+  }
+}
+
 /** A part's text, inflated with an output limit; undefined when it is missing or unusual. */
 function partText(bytes, entries, name, maxBytes) {
   const entry = entries.get(name);
@@ -88,9 +100,14 @@ function partText(bytes, entries, name, maxBytes) {
   const data = bytes.subarray(start, start + entry.compressedSize);
   let raw;
   if (entry.method === 0) raw = data;
-  else if (entry.method === 8) raw = inflateRawSync(data, { maxOutputLength: maxBytes });
-  else return undefined;
-  if (raw.length > maxBytes) throw new RangeError('part too large');
+  else if (entry.method === 8) {
+    try {
+      raw = inflateRawSync(data, { maxOutputLength: maxBytes });
+    } catch (error) {
+      throw error && error.code === 'ERR_BUFFER_TOO_LARGE' ? new PartTooLargeError(name, maxBytes) : error;
+    }
+  } else return undefined;
+  if (raw.length > maxBytes) throw new PartTooLargeError(name, maxBytes);
   return decoder.decode(raw);
 }
 

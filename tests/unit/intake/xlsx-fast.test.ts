@@ -7,7 +7,8 @@
 import { crc32, deflateRawSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import * as XLSX from 'xlsx';
-import { readPlainXlsx, xlsxReadOptions } from '../../../server/intake/xlsx-fast.mjs';
+import { DEFAULT_PARSE_LIMITS, parseSpreadsheet } from '../../../server/intake/parse.js';
+import { PartTooLargeError, readPlainXlsx, xlsxReadOptions } from '../../../server/intake/xlsx-fast.mjs';
 
 const MAX_PART = 100 * 1024 * 1024;
 
@@ -154,6 +155,20 @@ describe('the fast .xlsx reader reads exactly what xlsx reads', () => {
   it('refuses to inflate a part beyond its limit, whatever the archive declares', () => {
     const bytes = handWritten(`<row r="1"><c r="A1" t="inlineStr"><is><t>${'x'.repeat(200_000)}</t></is></c></row>`, '');
     expect(() => readPlainXlsx(new Uint8Array(bytes), { sheetRows: 100, maxPartBytes: 100_000 })).toThrow(RangeError);
+    expect(() => readPlainXlsx(new Uint8Array(bytes), { sheetRows: 100, maxPartBytes: 100_000 })).toThrow(new PartTooLargeError('xl/worksheets/sheet1.xml', 100_000));
+  });
+
+  it('makes the worker refuse a part that inflates past its limit while its directory declares it small, without handing it to xlsx', async () => {
+    const bytes = handWritten(`<row r="1"><c r="A1" t="inlineStr"><is><t>${'x'.repeat(2 * 1048576)}</t></is></c></row>`, '');
+    // The directory declares the 2 MB sheet as 1 kB, so the worker's check of declared sizes passes it.
+    // Its name's last occurrence is in the central directory, which follows the parts.
+    const entry = bytes.lastIndexOf('xl/worksheets/sheet1.xml') - 46;
+    expect(bytes.readUInt32LE(entry)).toBe(0x02014b50);
+    bytes.writeUInt32LE(1024, entry + 24);
+    await expect(parseSpreadsheet(bytes, { ...DEFAULT_PARSE_LIMITS, maxPartBytes: 1048576 })).rejects.toMatchObject({
+      status: 413,
+      message: 'The workbook expands to more than its ZIP directory declares (xl/worksheets/sheet1.xml: over 1 MB); at most 1 MB per part can be imported. Save only the motor list, or split it.',
+    });
   });
 
   it('answers the range of a declared 16,384-column sheet without laying out its cells, so the worker can refuse it', () => {
