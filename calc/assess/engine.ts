@@ -1043,8 +1043,8 @@ function optionMoney(
   return npv;
 }
 
-/** Sets every figure of a row to NaN (an option that does not apply). */
-function clearRow(columns: FigureColumns, row: number): void {
+/** Sets every figure of a row to NaN (an option that does not apply, or a motor that failed). */
+export function clearRow(columns: FigureColumns, row: number): void {
   columns.ratedEfficiencyPct[row] = Number.NaN;
   columns.lifeYears[row] = Number.NaN;
   columns.annualKwh[row] = Number.NaN;

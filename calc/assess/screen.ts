@@ -7,7 +7,7 @@
  * once per batch.
  */
 import { CalcInputError } from '../errors.js';
-import { OPTION_SLOTS, assessMotorInto, assessmentContext, figureColumns, motorSummary, type AssessmentContext, type FigureColumns, type MotorSummary } from './engine.js';
+import { OPTION_SLOTS, assessMotorInto, clearRow, assessmentContext, figureColumns, motorSummary, type AssessmentContext, type FigureColumns, type MotorSummary } from './engine.js';
 import { OPTION_CODES, type OptionCode } from './options.js';
 import type { AssumptionsInput, MotorInput, PriceBookInput, SiteInput } from './schema.js';
 
@@ -109,7 +109,7 @@ function screenOne(motor: MotorInput, context: AssessmentContext, figures: Figur
 
 /** A motor's rows back to NaN (it failed part way). */
 function clearRows(figures: FigureColumns, firstRow: number): void {
-  for (const column of Object.values(figures)) column.fill(Number.NaN, firstRow, firstRow + OPTION_SLOTS);
+  for (let slot = 0; slot < OPTION_SLOTS; slot += 1) clearRow(figures, firstRow + slot);
 }
 
 /** The error of motor `motorIndex`: "motor.x" becomes "motors.<index>.x"; other fields are kept. */
