@@ -46,11 +46,10 @@ export interface ValidatedRow extends ParsedRow {
   motorId: number | null;
 }
 
-export interface ValidationResult {
-  rows: ValidatedRow[];
+/** Counts and duplicates of the rows validated so far. */
+export interface ValidationSummary {
   counts: { total: number; valid: number; invalid: number; warnings: number };
   duplicates: { inFile: Array<{ tag: string; rows: number[] }>; inRegister: Array<{ tag: string; row: number; motorId: number }> };
-  unmappedRequired: string[];
 }
 
 type ColumnReader = (cell: CellValue) => CellResult<unknown>;
@@ -166,7 +165,7 @@ export interface Validation {
   /** Validates the next rows (in file order), with their duplicate and register checks. */
   validate(rows: ParsedRow[]): ValidatedRow[];
   /** Counts and duplicates of the rows validated so far. */
-  summary(): Omit<ValidationResult, 'rows' | 'unmappedRequired'>;
+  summary(): ValidationSummary;
 }
 
 /**
@@ -234,12 +233,6 @@ export function startValidation(rows: ParsedRow[], context: ValidationContext): 
       return { counts: { total, valid, invalid: total - valid, warnings }, duplicates: { inFile, inRegister } };
     },
   };
-}
-
-export function validateRows(rows: ParsedRow[], context: ValidationContext): ValidationResult {
-  const validation = startValidation(rows, context);
-  const validated = validation.validate(rows);
-  return { rows: validated, ...validation.summary(), unmappedRequired: validation.unmappedRequired };
 }
 
 /** A new motor needs its rated power and poles; the others have defaults. */
