@@ -163,11 +163,13 @@ export const commitStatements = {
      WHERE m.id = o.motor_id`,
   /**
    * Creates the motors of the other rows and records them. Their ids are drawn from the motors' own
-   * sequence beforehand, so each row knows its motor without joining the created motors back by tag.
+   * sequence beforehand, so each row knows its motor without joining the created motors back by tag;
+   * in the file's row order (PostgreSQL draws them after the sort), not the staged rows' storage order.
    */
   insertMotors: `WITH fresh AS MATERIALIZED (
        SELECT r.id AS row_id, r."values", nextval((SELECT pg_get_serial_sequence('motors', 'id'))::regclass)::int AS motor_id
        FROM ${VALID_ROWS} AND NOT EXISTS (SELECT 1 FROM import_commit_outcomes o WHERE o.row_id = r.id)
+       ORDER BY r.row_number
      ), created AS (
        INSERT INTO motors (id, organization_id, site_id, import_batch_id, version, created_at, updated_at, ${MOTOR_COLUMNS.map(([, column]) => column).join(', ')})
        SELECT r.motor_id, :organizationId, :siteId, :batchId, 0, now(), now(), ${MOTOR_COLUMNS.map(([field, , type, cast]) =>

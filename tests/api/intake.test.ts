@@ -339,9 +339,16 @@ describe('intake: atomic commit', () => {
     expect(batch).toMatchObject({ status: 'failed', progress: 0, createdCount: 0 });
 
     delete intakeTestHooks.afterCommitStep;
+    // Every other staged row rewritten, so the table no longer holds the rows in the file's order.
+    await database().query(`UPDATE import_rows SET warnings = warnings WHERE batch_id = ${big.body.id as number} AND row_number % 2 = 0`);
     const retried = await session.post(`/api/imports/${big.body.id}/commit`).expect(200);
     expect(retried.body).toEqual({ created: 4700, updated: 300, skipped: 0 });
     expect(await Motor.count({ where: { siteId: atomicSite.id } })).toBe(5000);
+    // The created motors are numbered in the file's row order.
+    const [created] = await database().query(`SELECT motor_id FROM import_rows WHERE batch_id = ${big.body.id as number} AND action = 'create' ORDER BY row_number`);
+    const ids = (created as Array<{ motor_id: number }>).map((row) => row.motor_id);
+    expect(ids).toHaveLength(4700);
+    expect(ids).toEqual([...ids].sort((a, b) => a - b));
    }, HEAVY_TEST_MS);
 
   it('refuses to commit a batch with no valid row, and to commit twice', async () => {
