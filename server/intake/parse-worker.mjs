@@ -29,15 +29,10 @@ function refuse(code, message) {
   parentPort.postMessage({ ok: false, code, message });
 }
 
-/** The first sheet through xlsx: { sheetName, ref, fullref, table() } or { refused }. */
+/** The first sheet through xlsx: { sheetName, ref, fullref, table() }. What xlsx throws, run's caller words for the user. */
 async function readWithXlsx(bytes, sheetRows) {
   XLSX ??= await import('xlsx');
-  let workbook;
-  try {
-    workbook = XLSX.read(bytes, xlsxReadOptions(sheetRows));
-  } catch (error) {
-    return { refused: { code: 'unreadable', message: `The file cannot be read as a spreadsheet (${String(error && error.message ? error.message : error).slice(0, 200)}).` } };
-  }
+  const workbook = XLSX.read(bytes, xlsxReadOptions(sheetRows));
   const sheetName = workbook.SheetNames[0];
   const sheet = sheetName === undefined ? undefined : workbook.Sheets[sheetName];
   if (!sheet || !sheet['!ref']) return { sheetName, ref: undefined, fullref: undefined, table: () => [] };
@@ -78,7 +73,6 @@ async function run() {
     }
   }
   if (!sheet) sheet = await readWithXlsx(bytes, sheetRowsLimit);
-  if (sheet.refused) return refuse(sheet.refused.code, sheet.refused.message);
   const { sheetName, ref: range, fullref: full } = sheet;
   if (!range) return refuse('empty', 'The first sheet of the file is empty.');
   const sheetRows = full.e.r - full.s.r + 1;

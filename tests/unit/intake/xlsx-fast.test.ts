@@ -158,6 +158,13 @@ describe('the fast .xlsx reader reads exactly what xlsx reads', () => {
     expect(() => readPlainXlsx(new Uint8Array(bytes), { sheetRows: 100, maxPartBytes: 100_000 })).toThrow(new PartTooLargeError('xl/worksheets/sheet1.xml', 100_000));
   });
 
+  it('makes the worker refuse a ZIP that neither reader can read, in words with xlsx’s reason', async () => {
+    await expect(parseSpreadsheet(zip({ 'word/document.xml': '<w:document/>' }))).rejects.toMatchObject({
+      status: 400,
+      message: 'The file cannot be read as a spreadsheet (Unsupported ZIP file).',
+    });
+  });
+
   it('makes the worker refuse a part that inflates past its limit while its directory declares it small, without handing it to xlsx', async () => {
     const bytes = handWritten(`<row r="1"><c r="A1" t="inlineStr"><is><t>${'x'.repeat(2 * 1048576)}</t></is></c></row>`, '');
     // The directory declares the 2 MB sheet as 1 kB, so the worker's check of declared sizes passes it.
